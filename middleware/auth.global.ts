@@ -1,0 +1,25 @@
+import type { Role } from '~~/shared/types/roles'
+import { HOME_BY_ROLE } from '~~/shared/types/roles'
+
+declare module '#app' {
+  interface PageMeta {
+    /** Roles that may open the page; omit for pages anyone signed in may open. */
+    roles?: Role[]
+    /** Signed-out pages (sign-in, set password). */
+    public?: boolean
+  }
+}
+
+/** Every page declares who may see it; this guard enforces it before the page loads. */
+export default defineNuxtRouteMiddleware((to) => {
+  const { loggedIn, user } = useUserSession()
+  if (to.meta.public) {
+    if (loggedIn.value && user.value && to.path === '/sign-in') return navigateTo(HOME_BY_ROLE[user.value.role])
+    return
+  }
+  if (!loggedIn.value || !user.value) {
+    return navigateTo({ path: '/sign-in', query: to.fullPath !== '/' ? { next: to.fullPath } : {} })
+  }
+  const roles = to.meta.roles
+  if (roles && !roles.includes(user.value.role)) return navigateTo(HOME_BY_ROLE[user.value.role])
+})

@@ -1,0 +1,74 @@
+// https://nuxt.com/docs/api/configuration/nuxt-config
+export default defineNuxtConfig({
+  compatibilityDate: '2025-07-15',
+  srcDir: '.',
+  modules: [
+    '@nuxt/eslint',
+    '@nuxtjs/tailwindcss',
+    '@nuxtjs/i18n',
+    '@pinia/nuxt',
+    'nuxt-auth-utils',
+  ],
+  devtools: { enabled: false },
+  telemetry: false,
+  css: [
+    '@fontsource/atkinson-hyperlegible/400.css',
+    '@fontsource/atkinson-hyperlegible/700.css',
+    '~/assets/css/main.css',
+  ],
+  app: {
+    head: {
+      titleTemplate: '%s · Tidewell',
+      meta: [{ name: 'viewport', content: 'width=device-width, initial-scale=1' }],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+    },
+  },
+  runtimeConfig: {
+    // Every value here can be overridden by NUXT_* variables; see .env.example.
+    databasePath: 'data/tidewell.sqlite',
+    smtpUrl: '',
+    mailFrom: 'Tidewell <no-reply@tidewell.test>',
+    mailCatcherPort: 2525,
+    outboxPollMs: 2000,
+    outboxRetryBaseMs: 30_000,
+    publicUrl: 'http://localhost:3000',
+    seedDemo: false,
+    allowClockOverride: false,
+    session: {
+      name: 'tidewell-session',
+      maxAge: 60 * 60 * 8,
+      cookie: { sameSite: 'lax', httpOnly: true },
+    },
+  },
+  nitro: {
+    experimental: { tasks: true },
+    scheduledTasks: {
+      '*/5 * * * *': ['outbox:send'],
+    },
+  },
+  i18n: {
+    restructureDir: '.',
+    langDir: 'locales',
+    defaultLocale: 'en',
+    strategy: 'no_prefix',
+    locales: [
+      { code: 'en', language: 'en-US', name: 'English', file: 'en.json' },
+      { code: 'es', language: 'es-US', name: 'Español', file: 'es.json' },
+    ],
+    detectBrowserLanguage: {
+      useCookie: true,
+      cookieKey: 'tidewell_lang',
+      redirectOn: 'root',
+      alwaysRedirect: false,
+    },
+  },
+  tailwindcss: {
+    cssPath: false,
+  },
+  eslint: {
+    config: { stylistic: false },
+  },
+  typescript: {
+    strict: true,
+  },
+})

@@ -1,0 +1,20 @@
+import { setPasswordSchema } from '../../../shared/schemas/auth'
+import { User } from '../../db/models'
+
+/** Sets a password from an invitation or reset link; the link works exactly once. */
+export default defineEventHandler(async (event) => {
+  const { token, password } = await readValidatedBody(event, parseWith(setPasswordSchema))
+  const problems = passwordProblems(password)
+  if (problems.length) {
+    throw createError({ statusCode: 400, message: problems[0], data: { fieldErrors: { password: problems } } })
+  }
+  const sequelize = await useDb()
+  const passwordHash = await hashPassword(password)
+  await sequelize.transaction(async (transaction) => {
+    const used = await consumeToken(token, ['invite', 'reset'], transaction)
+    const user = used?.userId ? await User.findByPk(used.userId, { transaction }) : null
+    if (!user || !user.active) throw createError({ statusCode: 400, message: 'errors.linkInvalid' })
+    await user.update({ passwordHash }, { transaction })
+  })
+  return { ok: true }
+})

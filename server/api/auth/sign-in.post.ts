@@ -1,0 +1,33 @@
+import { signInSchema } from '../../../shared/schemas/auth'
+import { Patient, User } from '../../db/models'
+
+// A real scrypt hash of a random string, so an unknown e-mail costs the same time as a wrong password.
+let decoyHash: Promise<string> | undefined
+
+export default defineEventHandler(async (event) => {
+  const body = await readValidatedBody(event, signInSchema.safeParse)
+  if (!body.success) throw createError({ statusCode: 401, message: 'errors.signInFailed' })
+  const { email, password } = body.data
+  await useDb()
+
+  const key = accountKey(email)
+  const wait = await secondsLocked(key)
+  if (wait > 0) {
+    setResponseHeader(event, 'Retry-After', wait)
+    throw createError({ statusCode: 429, message: 'errors.tooManyAttempts', data: { retryAfter: wait } })
+  }
+
+  const user = await User.findOne({ where: { email }, include: [{ model: Patient, as: 'patient' }] })
+  decoyHash ??= hashPassword(crypto.randomUUID())
+  const valid = await verifyPassword(user?.passwordHash ?? await decoyHash, password)
+  if (!user || !user.active || !user.passwordHash || !valid) {
+    await recordFailure(key)
+    throw createError({ statusCode: 401, message: 'errors.signInFailed' })
+  }
+
+  await clearFailures(key)
+  const patient = (user as User & { patient?: Patient | null }).patient
+  const sessionUser = { id: user.id, role: user.role, name: user.name, language: user.language, patientId: patient?.id ?? null }
+  await replaceUserSession(event, { user: sessionUser, loggedInAt: Date.now() })
+  return { user: sessionUser }
+})

@@ -1,0 +1,10 @@
+/** Public facts about the clinic, shown on every page (no patient data). */
+export default defineEventHandler(async () => {
+  const settings = await getSettings()
+  return {
+    clinicName: settings.clinicName,
+    emergencyNumber: settings.emergencyNumber,
+    crisisLine: settings.crisisLine,
+    timeZone: settings.timeZone,
+  }
+})

@@ -1,0 +1,4 @@
+export default defineEventHandler(async () => {
+  await useDb()
+  return { ok: true }
+})

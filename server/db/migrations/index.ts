@@ -1,0 +1,9 @@
+import * as foundation from './0001-foundation'
+
+/**
+ * Every migration, in order. Nitro bundles the server, so migrations are listed here
+ * rather than found on disk at run time. Add a new file and one line below.
+ */
+export const migrations = [
+  { name: '0001-foundation', ...foundation },
+]

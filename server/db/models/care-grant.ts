@@ -1,0 +1,29 @@
+import { DataTypes, Model } from 'sequelize'
+import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
+import type { Patient } from './patient'
+import type { User } from './user'
+
+/** A patient's permission for one caregiver (the care circle). Viewing is implied. */
+export class CareGrant extends Model<InferAttributes<CareGrant>, InferCreationAttributes<CareGrant>> {
+  declare id: CreationOptional<number>
+  declare patientId: ForeignKey<Patient['id']>
+  declare caregiverUserId: ForeignKey<User['id']>
+  declare canLogDiary: boolean
+  declare canManageAppointments: boolean
+  declare grantedByUserId: ForeignKey<User['id']>
+  declare revokedAt: Date | null
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+  declare caregiver?: NonAttribute<User>
+
+  static initModel(sequelize: Sequelize) {
+    CareGrant.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      canLogDiary: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false, field: 'can_log_diary' },
+      canManageAppointments: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false, field: 'can_manage_appointments' },
+      revokedAt: { type: DataTypes.DATE, allowNull: true, field: 'revoked_at' },
+      createdAt: { type: DataTypes.DATE, field: 'created_at' },
+      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+    }, { sequelize, tableName: 'care_grants' })
+  }
+}

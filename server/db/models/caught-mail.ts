@@ -1,0 +1,23 @@
+import { DataTypes, Model } from 'sequelize'
+import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+
+/** A message received by the local mail catcher (development and demo only). */
+export class CaughtMail extends Model<InferAttributes<CaughtMail>, InferCreationAttributes<CaughtMail>> {
+  declare id: CreationOptional<number>
+  declare from: string
+  declare to: string
+  declare subject: string
+  declare text: string
+  declare receivedAt: CreationOptional<Date>
+
+  static initModel(sequelize: Sequelize) {
+    CaughtMail.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      from: { type: DataTypes.STRING, allowNull: false, field: 'from_address' },
+      to: { type: DataTypes.STRING, allowNull: false, field: 'to_address' },
+      subject: { type: DataTypes.STRING, allowNull: false },
+      text: { type: DataTypes.TEXT, allowNull: false },
+      receivedAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW, field: 'received_at' },
+    }, { sequelize, tableName: 'caught_mail', timestamps: false })
+  }
+}

@@ -1,0 +1,45 @@
+import { DataTypes, Model } from 'sequelize'
+import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+
+export interface OutboxAttachment {
+  filename: string
+  contentType: string
+  content: string
+}
+
+/** An e-mail waiting to be sent, written in the same transaction as the change that caused it. */
+export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCreationAttributes<OutboxMessage>> {
+  declare id: CreationOptional<number>
+  declare to: string
+  declare subject: string
+  declare text: string
+  declare html: string
+  declare attachments: CreationOptional<OutboxAttachment[]>
+  declare dedupeKey: string | null
+  declare status: CreationOptional<'pending' | 'sent'>
+  declare attempts: CreationOptional<number>
+  declare nextAttemptAt: CreationOptional<Date>
+  declare lastError: string | null
+  declare sentAt: Date | null
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+
+  static initModel(sequelize: Sequelize) {
+    OutboxMessage.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      to: { type: DataTypes.STRING, allowNull: false, field: 'to_address' },
+      subject: { type: DataTypes.STRING, allowNull: false },
+      text: { type: DataTypes.TEXT, allowNull: false },
+      html: { type: DataTypes.TEXT, allowNull: false },
+      attachments: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },
+      dedupeKey: { type: DataTypes.STRING, allowNull: true, unique: true, field: 'dedupe_key' },
+      status: { type: DataTypes.STRING, allowNull: false, defaultValue: 'pending' },
+      attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+      nextAttemptAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW, field: 'next_attempt_at' },
+      lastError: { type: DataTypes.TEXT, allowNull: true, field: 'last_error' },
+      sentAt: { type: DataTypes.DATE, allowNull: true, field: 'sent_at' },
+      createdAt: { type: DataTypes.DATE, field: 'created_at' },
+      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+    }, { sequelize, tableName: 'outbox_messages' })
+  }
+}

@@ -1,0 +1,17 @@
+import { DataTypes, Model } from 'sequelize'
+import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+
+/** A failed sign-in, kept in the database so the lockout survives a restart. */
+export class SignInFailure extends Model<InferAttributes<SignInFailure>, InferCreationAttributes<SignInFailure>> {
+  declare id: CreationOptional<number>
+  declare accountKey: string
+  declare at: Date
+
+  static initModel(sequelize: Sequelize) {
+    SignInFailure.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      accountKey: { type: DataTypes.STRING, allowNull: false, field: 'account_key' },
+      at: { type: DataTypes.DATE, allowNull: false },
+    }, { sequelize, tableName: 'sign_in_failures', timestamps: false })
+  }
+}

@@ -1,0 +1,29 @@
+import { DataTypes, Model } from 'sequelize'
+import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+import type { Language, Role } from '../../../shared/types/roles'
+
+export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
+  declare id: CreationOptional<number>
+  declare email: string
+  declare passwordHash: string | null
+  declare role: Role
+  declare name: string
+  declare language: Language
+  declare active: CreationOptional<boolean>
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+
+  static initModel(sequelize: Sequelize) {
+    User.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      email: { type: DataTypes.STRING, allowNull: false, unique: true },
+      passwordHash: { type: DataTypes.STRING, allowNull: true, field: 'password_hash' },
+      role: { type: DataTypes.STRING, allowNull: false },
+      name: { type: DataTypes.STRING, allowNull: false },
+      language: { type: DataTypes.STRING, allowNull: false, defaultValue: 'en' },
+      active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+      createdAt: { type: DataTypes.DATE, field: 'created_at' },
+      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+    }, { sequelize, tableName: 'users' })
+  }
+}

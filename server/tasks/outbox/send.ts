@@ -1,0 +1,8 @@
+export default defineTask({
+  meta: { name: 'outbox:send', description: 'Send every queued e-mail that is due' },
+  async run({ payload }) {
+    const now = typeof payload.now === 'string' ? new Date(payload.now) : undefined
+    const sent = await processOutbox(now ? () => now : undefined)
+    return { result: { sent } }
+  },
+})

@@ -1,0 +1,130 @@
+import type { H3Event } from 'h3'
+import { createError, getRouterParam } from 'h3'
+import { Op } from 'sequelize'
+import type { User as SessionUser } from '#auth-utils'
+import type { Role } from '../../shared/types/roles'
+import { CareGrant, Patient, User } from '../db/models'
+
+/**
+ * Who may do what to which patient. Every handler that touches patient data goes through
+ * authorizePatient(); the decision itself is the pure table in can().
+ */
+export const PATIENT_ACTIONS = [
+  'patient.read', // schedule, diary, injections, results
+  'diary.write', // log a diary entry
+  'appointment.respond', // confirm or ask for another time
+  'appointment.schedule', // book or move an appointment
+  'injection.record', // record an injection given
+  'patient.manage', // roster details, labs
+  'circle.manage', // invite, change or remove caregivers
+  'access-history.read', // the patient's own view of the audit trail
+] as const
+export type PatientAction = (typeof PATIENT_ACTIONS)[number]
+
+export interface GrantFlags {
+  canLogDiary: boolean
+  canManageAppointments: boolean
+}
+
+/** How the person asking relates to the patient record. */
+export type Relation =
+  | { kind: 'self' }
+  | { kind: 'caregiver', grant: GrantFlags | null }
+  | { kind: 'staff' }
+  | { kind: 'none' }
+
+const STAFF_ALLOWED: Record<'nurse' | 'clinician' | 'admin', readonly PatientAction[]> = {
+  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.manage'],
+  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage'],
+  admin: ['patient.read', 'appointment.schedule', 'patient.manage', 'circle.manage'],
+}
+
+const SELF_ALLOWED: readonly PatientAction[] = [
+  'patient.read', 'diary.write', 'appointment.respond', 'circle.manage', 'access-history.read',
+]
+
+export function can(role: Role, relation: Relation, action: PatientAction): boolean {
+  switch (relation.kind) {
+    case 'self':
+      return role === 'patient' && SELF_ALLOWED.includes(action)
+    case 'caregiver':
+      if (role !== 'caregiver' || !relation.grant) return false
+      if (action === 'patient.read') return true
+      if (action === 'diary.write') return relation.grant.canLogDiary
+      if (action === 'appointment.respond') return relation.grant.canManageAppointments
+      return false
+    case 'staff':
+      return (role === 'nurse' || role === 'clinician' || role === 'admin') && STAFF_ALLOWED[role].includes(action)
+    case 'none':
+      return false
+  }
+}
+
+/** The signed-in user, re-read from the database so a deactivated account stops at once. */
+export async function requireActiveUser(event: H3Event): Promise<SessionUser> {
+  const session = await requireUserSession(event)
+  await useDb()
+  const user = await User.findByPk(session.user.id, { include: [{ model: Patient, as: 'patient' }] })
+  if (!user || !user.active) {
+    await clearUserSession(event)
+    throw createError({ statusCode: 401, message: 'errors.signedOut' })
+  }
+  const patient = (user as User & { patient?: Patient | null }).patient
+  return { id: user.id, role: user.role, name: user.name, language: user.language, patientId: patient?.id ?? null }
+}
+
+export async function requireRole(event: H3Event, roles: readonly Role[]): Promise<SessionUser> {
+  const user = await requireActiveUser(event)
+  if (!roles.includes(user.role)) throw createError({ statusCode: 403, message: 'errors.forbidden' })
+  return user
+}
+
+async function relationTo(user: SessionUser, patientId: number): Promise<{ relation: Relation, grant: CareGrant | null }> {
+  if (user.role === 'patient') return { relation: user.patientId === patientId ? { kind: 'self' } : { kind: 'none' }, grant: null }
+  if (user.role === 'caregiver') {
+    const grant = await CareGrant.findOne({ where: { patientId, caregiverUserId: user.id, revokedAt: { [Op.is]: null } } })
+    return { relation: { kind: 'caregiver', grant }, grant }
+  }
+  return { relation: { kind: 'staff' }, grant: null }
+}
+
+export interface PatientAccess {
+  user: SessionUser
+  patient: Patient
+  /** The caregiver's grant when a caregiver is acting. */
+  grant: CareGrant | null
+  relation: Relation['kind']
+}
+
+/**
+ * Authenticate, then authorise one action on one patient. A record the user may not see
+ * answers 404 (it might as well not exist); one he may see but not change answers 403.
+ * Every access by anyone but the patient himself, allowed or not, goes to the audit trail.
+ */
+export async function authorizePatient(event: H3Event, patientId: number, action: PatientAction): Promise<PatientAccess> {
+  const user = await requireActiveUser(event)
+  const id = Number.isSafeInteger(patientId) && patientId > 0 ? patientId : 0
+  const patient = id ? await Patient.findByPk(id) : null
+  const { relation, grant } = patient ? await relationTo(user, id) : { relation: { kind: 'none' } as Relation, grant: null }
+  const audited = relation.kind !== 'self'
+  const audit = (outcome: 'allowed' | 'denied') => audited
+    ? recordAudit(event, { actor: user, patientId: patient?.id ?? null, action, resource: event.path, outcome })
+    : Promise.resolve()
+
+  if (!patient || !can(user.role, relation, 'patient.read')) {
+    await audit('denied')
+    throw createError({ statusCode: 404, message: 'errors.notFound' })
+  }
+  if (!can(user.role, relation, action)) {
+    await audit('denied')
+    throw createError({ statusCode: 403, message: 'errors.forbidden' })
+  }
+  await audit('allowed')
+  return { user, patient, grant, relation: relation.kind }
+}
+
+/** The numeric route parameter, or 0 when it is not one (authorizePatient then answers 404). */
+export function idParam(event: H3Event, name = 'id'): number {
+  const raw = getRouterParam(event, name) ?? ''
+  return /^\d{1,10}$/.test(raw) ? Number(raw) : 0
+}

@@ -1,0 +1,72 @@
+import { mkdirSync } from 'node:fs'
+import { dirname, resolve } from 'node:path'
+import { Sequelize, Transaction } from 'sequelize'
+import sqlite3 from 'sqlite3'
+import { SequelizeStorage, Umzug } from 'umzug'
+import { migrations } from '../db/migrations'
+import { initModels } from '../db/models'
+import { seedDemoClinic } from '../db/seed/demo'
+
+let ready: Promise<Sequelize> | undefined
+
+/** Applies every pending migration; returns the names it applied. */
+export async function migrate(sequelize: Sequelize) {
+  const umzug = new Umzug({
+    migrations,
+    context: sequelize.getQueryInterface(),
+    storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
+    logger: undefined,
+  })
+  const applied = await umzug.up()
+  return applied.map(m => m.name)
+}
+
+type Connection = sqlite3.Database & { tidewellConfigured?: boolean }
+
+/**
+ * Sequelize opens one SQLite connection per transaction and turns foreign keys on for
+ * each, but has no hook for other per-connection settings on this dialect: wrap
+ * getConnection to give every connection a busy timeout.
+ */
+function configureEachConnection(sequelize: Sequelize) {
+  const manager = sequelize.connectionManager as unknown as { getConnection: (options?: object) => Promise<Connection> }
+  const open = manager.getConnection.bind(manager)
+  manager.getConnection = async (options) => {
+    const connection = await open(options)
+    if (!connection.tidewellConfigured) {
+      connection.configure('busyTimeout', 5000)
+      connection.tidewellConfigured = true
+    }
+    return connection
+  }
+}
+
+async function connect(): Promise<Sequelize> {
+  const config = useRuntimeConfig()
+  const storage = resolve(config.databasePath)
+  mkdirSync(dirname(storage), { recursive: true })
+  const sequelize = new Sequelize({
+    dialect: 'sqlite',
+    dialectModule: sqlite3,
+    storage,
+    logging: false,
+    // IMMEDIATE takes the write lock at BEGIN, so two writers queue instead of deadlocking.
+    transactionType: Transaction.TYPES.IMMEDIATE,
+    retry: { max: 5, match: [/SQLITE_BUSY/] },
+  })
+  configureEachConnection(sequelize)
+  await sequelize.query('PRAGMA journal_mode = WAL;')
+  initModels(sequelize)
+  await migrate(sequelize)
+  if (config.seedDemo) await seedDemoClinic(sequelize)
+  return sequelize
+}
+
+/** The one shared connection, created, migrated (and seeded for the demo) on first use. */
+export function useDb(): Promise<Sequelize> {
+  ready ??= connect().catch((error) => {
+    ready = undefined
+    throw error
+  })
+  return ready
+}
