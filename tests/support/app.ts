@@ -1,0 +1,75 @@
+import type { ChildProcess } from 'node:child_process'
+import { spawn } from 'node:child_process'
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { freePort } from './ports'
+
+const root = new URL('../../', import.meta.url).pathname
+
+export interface RunningApp {
+  url: string
+  dbPath: string
+  dataDir: string
+  /** Stops the server; its data folder is removed unless keepData (or it was given). */
+  stop: (options?: { keepData?: boolean }) => Promise<void>
+}
+
+/**
+ * Starts the built server (.output) with a fresh SQLite file, the demo clinic seeded and
+ * e-mail going to the given SMTP URL (or to the app's own mail catcher when none is given).
+ */
+export async function startApp(options: { smtpUrl?: string, env?: Record<string, string>, dataDir?: string } = {}): Promise<RunningApp> {
+  const port = await freePort()
+  const dataDir = options.dataDir ?? mkdtempSync(join(tmpdir(), 'tidewell-test-'))
+  const dbPath = join(dataDir, 'tidewell.sqlite')
+  const url = `http://127.0.0.1:${port}`
+  const child: ChildProcess = spawn(process.execPath, [`${root}.output/server/index.mjs`], {
+    cwd: root,
+    stdio: ['ignore', 'pipe', 'pipe'],
+    env: {
+      ...process.env,
+      NODE_ENV: 'production',
+      PORT: String(port),
+      HOST: '127.0.0.1',
+      NUXT_DATABASE_PATH: dbPath,
+      NUXT_SEED_DEMO: 'true',
+      NUXT_SESSION_PASSWORD: 'test-session-password-at-least-32-characters-long',
+      NUXT_PUBLIC_URL: url,
+      NUXT_SMTP_URL: options.smtpUrl ?? '',
+      NUXT_MAIL_CATCHER_PORT: String(await freePort()),
+      NUXT_OUTBOX_POLL_MS: '200',
+      NUXT_OUTBOX_RETRY_BASE_MS: '200',
+      NUXT_ALLOW_CLOCK_OVERRIDE: 'true',
+      ...options.env,
+    },
+  })
+  let output = ''
+  child.stdout?.on('data', (chunk) => {
+    output += chunk
+  })
+  child.stderr?.on('data', (chunk) => {
+    output += chunk
+  })
+  const deadline = Date.now() + 30_000
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`)
+    const ready = await fetch(`${url}/api/health`).then(r => r.ok).catch(() => false)
+    if (ready) break
+    if (Date.now() > deadline) throw new Error(`server did not start:\n${output}`)
+    await new Promise(r => setTimeout(r, 150))
+  }
+  return {
+    url,
+    dbPath,
+    dataDir,
+    stop: async ({ keepData = false } = {}) => {
+      if (child.exitCode === null) {
+        const exited = new Promise(done => child.once('exit', done))
+        child.kill('SIGTERM')
+        await exited
+      }
+      if (!options.dataDir && !keepData) rmSync(dataDir, { recursive: true, force: true })
+    },
+  }
+}

@@ -1,0 +1,47 @@
+import { readFileSync } from 'node:fs'
+import { createRequire } from 'node:module'
+import type { Page } from 'playwright-core'
+import { inject } from 'vitest'
+import { createPage, setup, url } from '@nuxt/test-utils/e2e'
+import { DEMO_PASSWORD } from './client'
+
+export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium'
+
+/** Points @nuxt/test-utils at the shared built server and Debian's Chromium. */
+export async function setupBrowser() {
+  await setup({
+    host: inject('appUrl'),
+    browser: true,
+    browserOptions: {
+      type: 'chromium',
+      launch: {
+        executablePath: CHROMIUM,
+        args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
+      },
+    },
+  })
+}
+
+export { createPage, url }
+
+/** Signs in through the real form and waits for the role's home page. */
+export async function signInAs(email: string, password = DEMO_PASSWORD): Promise<Page> {
+  const page = await createPage('/sign-in')
+  await page.getByLabel(/e-mail|correo/i).fill(email)
+  await page.getByLabel(/^(password|contraseña)$/i).fill(password)
+  await page.getByRole('button', { name: /^(sign in|iniciar sesión)$/i }).click()
+  await page.waitForURL(u => !u.pathname.startsWith('/sign-in'))
+  return page
+}
+
+const axeSource = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8')
+
+/** Runs axe-core inside the page and returns the serious and critical violations. */
+export async function seriousAxeViolations(page: Page) {
+  await page.addScriptTag({ content: axeSource })
+  const results = await page.evaluate(async () => {
+    const axe = (window as unknown as { axe: { run: (ctx: Document) => Promise<{ violations: { id: string, impact: string, help: string, nodes: unknown[] }[] }> } }).axe
+    return axe.run(document)
+  })
+  return results.violations.filter(v => v.impact === 'serious' || v.impact === 'critical').map(v => `${v.id}: ${v.help} (${v.nodes.length})`)
+}
