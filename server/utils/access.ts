@@ -16,6 +16,7 @@ export const PATIENT_ACTIONS = [
   'appointment.schedule', // book or move an appointment
   'injection.record', // record an injection given
   'patient.manage', // roster details, labs
+  'circle.read', // see who is in the care circle
   'circle.manage', // invite, change or remove caregivers
   'access-history.read', // the patient's own view of the audit trail
 ] as const
@@ -34,13 +35,13 @@ export type Relation =
   | { kind: 'none' }
 
 const STAFF_ALLOWED: Record<'nurse' | 'clinician' | 'admin', readonly PatientAction[]> = {
-  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.manage'],
-  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage'],
-  admin: ['patient.read', 'appointment.schedule', 'patient.manage', 'circle.manage'],
+  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read', 'circle.manage'],
+  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read'],
+  admin: ['patient.read', 'appointment.schedule', 'patient.manage', 'circle.read', 'circle.manage'],
 }
 
 const SELF_ALLOWED: readonly PatientAction[] = [
-  'patient.read', 'diary.write', 'appointment.respond', 'circle.manage', 'access-history.read',
+  'patient.read', 'diary.write', 'appointment.respond', 'circle.read', 'circle.manage', 'access-history.read',
 ]
 
 export function can(role: Role, relation: Relation, action: PatientAction): boolean {
@@ -108,7 +109,7 @@ export async function authorizePatient(event: H3Event, patientId: number, action
   const { relation, grant } = patient ? await relationTo(user, id) : { relation: { kind: 'none' } as Relation, grant: null }
   const audited = relation.kind !== 'self'
   const audit = (outcome: 'allowed' | 'denied') => audited
-    ? recordAudit(event, { actor: user, patientId: patient?.id ?? null, action, resource: event.path, outcome })
+    ? recordAudit(event, { actor: user, patientId: patient?.id ?? null, action, resource: `${event.method} ${event.path}`, outcome })
     : Promise.resolve()
 
   if (!patient || !can(user.role, relation, 'patient.read')) {

@@ -12,15 +12,15 @@ type Row = [label: string, role: Role, relation: Relation, allowed: PatientActio
 
 // The whole policy as data: every action not listed for a row must be refused.
 const TABLE: Row[] = [
-  ['patient, own record', 'patient', { kind: 'self' }, ['patient.read', 'diary.write', 'appointment.respond', 'circle.manage', 'access-history.read']],
+  ['patient, own record', 'patient', { kind: 'self' }, ['patient.read', 'diary.write', 'appointment.respond', 'circle.read', 'circle.manage', 'access-history.read']],
   ['patient, another record', 'patient', { kind: 'none' }, []],
   ['caregiver, view only', 'caregiver', viewOnly, ['patient.read']],
   ['caregiver, view and log', 'caregiver', viewLog, ['patient.read', 'diary.write']],
   ['caregiver, view and appointments', 'caregiver', viewAppointments, ['patient.read', 'appointment.respond']],
   ['caregiver, revoked or never granted', 'caregiver', revoked, []],
-  ['nurse', 'nurse', { kind: 'staff' }, ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.manage']],
-  ['clinician', 'clinician', { kind: 'staff' }, ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage']],
-  ['admin', 'admin', { kind: 'staff' }, ['patient.read', 'appointment.schedule', 'patient.manage', 'circle.manage']],
+  ['nurse', 'nurse', { kind: 'staff' }, ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read', 'circle.manage']],
+  ['clinician', 'clinician', { kind: 'staff' }, ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read']],
+  ['admin', 'admin', { kind: 'staff' }, ['patient.read', 'appointment.schedule', 'patient.manage', 'circle.read', 'circle.manage']],
   ['patient posing as staff', 'patient', { kind: 'staff' }, []],
   ['caregiver posing as self', 'caregiver', { kind: 'self' }, []],
 ]
