@@ -1,4 +1,5 @@
 import * as foundation from './0001-foundation'
+import * as schedule from './0002-schedule'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -6,4 +7,5 @@ import * as foundation from './0001-foundation'
  */
 export const migrations = [
   { name: '0001-foundation', ...foundation },
+  { name: '0002-schedule', ...schedule },
 ]

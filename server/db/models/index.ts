@@ -1,19 +1,24 @@
 import type { Sequelize } from 'sequelize'
+import { Appointment } from './appointment'
+import { AppointmentChangeRequest } from './appointment-change-request'
 import { AuditEvent } from './audit-event'
 import { CareGrant } from './care-grant'
 import { CaughtMail } from './caught-mail'
 import { ClinicSetting } from './clinic-setting'
+import { Injection } from './injection'
 import { OneTimeToken } from './one-time-token'
 import { OutboxMessage } from './outbox-message'
 import { Patient } from './patient'
+import { PatientRegimen } from './patient-regimen'
+import { Regimen } from './regimen'
 import { SignInFailure } from './sign-in-failure'
 import { User } from './user'
 
-export { AuditEvent, CareGrant, CaughtMail, ClinicSetting, OneTimeToken, OutboxMessage, Patient, SignInFailure, User }
+export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, ClinicSetting, Injection, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, User }
 
 /** Registers every model and its associations on one connection. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [User, Patient, CareGrant, AuditEvent, OutboxMessage, OneTimeToken, SignInFailure, CaughtMail, ClinicSetting]) {
+  for (const model of [User, Patient, CareGrant, AuditEvent, OutboxMessage, OneTimeToken, SignInFailure, CaughtMail, ClinicSetting, Regimen, PatientRegimen, Injection, Appointment, AppointmentChangeRequest]) {
     model.initModel(sequelize)
   }
   User.hasOne(Patient, { foreignKey: { name: 'userId', field: 'user_id', allowNull: false }, as: 'patient' })
@@ -22,4 +27,24 @@ export function initModels(sequelize: Sequelize) {
   CareGrant.belongsTo(Patient, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'patient' })
   CareGrant.belongsTo(User, { foreignKey: { name: 'caregiverUserId', field: 'caregiver_user_id', allowNull: false }, as: 'caregiver' })
   CareGrant.belongsTo(User, { foreignKey: { name: 'grantedByUserId', field: 'granted_by_user_id', allowNull: false }, as: 'grantedBy' })
+  registerScheduleAssociations()
+}
+
+/** The injection schedule: regimens, injections, appointments and change requests. */
+function registerScheduleAssociations() {
+  const patientKey = { name: 'patientId', field: 'patient_id', allowNull: false }
+  PatientRegimen.belongsTo(Regimen, { foreignKey: { name: 'regimenId', field: 'regimen_id', allowNull: false }, as: 'regimen' })
+  PatientRegimen.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
+  PatientRegimen.belongsTo(User, { foreignKey: { name: 'setByUserId', field: 'set_by_user_id', allowNull: true }, as: 'setBy' })
+  Injection.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
+  Injection.belongsTo(Regimen, { foreignKey: { name: 'regimenId', field: 'regimen_id', allowNull: false }, as: 'regimen' })
+  Injection.belongsTo(User, { foreignKey: { name: 'givenByUserId', field: 'given_by_user_id', allowNull: false }, as: 'givenBy' })
+  Appointment.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
+  Appointment.belongsTo(User, { foreignKey: { name: 'confirmedByUserId', field: 'confirmed_by_user_id', allowNull: true }, as: 'confirmedBy' })
+  Appointment.belongsTo(User, { foreignKey: { name: 'createdByUserId', field: 'created_by_user_id', allowNull: true }, as: 'createdBy' })
+  Appointment.hasMany(AppointmentChangeRequest, { foreignKey: { name: 'appointmentId', field: 'appointment_id', allowNull: false }, as: 'changeRequests' })
+  AppointmentChangeRequest.belongsTo(Appointment, { foreignKey: { name: 'appointmentId', field: 'appointment_id', allowNull: false }, as: 'appointment' })
+  AppointmentChangeRequest.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
+  AppointmentChangeRequest.belongsTo(User, { foreignKey: { name: 'requestedByUserId', field: 'requested_by_user_id', allowNull: false }, as: 'requestedBy' })
+  AppointmentChangeRequest.belongsTo(User, { foreignKey: { name: 'answeredByUserId', field: 'answered_by_user_id', allowNull: true }, as: 'answeredBy' })
 }

@@ -1,0 +1,39 @@
+import { DataTypes, Model } from 'sequelize'
+import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
+import type { ChangeDecision, ChangeRequestStatus } from '../../../shared/scheduling/types'
+import type { Appointment } from './appointment'
+import type { Patient } from './patient'
+import type { User } from './user'
+
+/** A patient's (or caregiver's) request for another appointment time, and the answer. */
+export class AppointmentChangeRequest extends Model<InferAttributes<AppointmentChangeRequest>, InferCreationAttributes<AppointmentChangeRequest>> {
+  declare id: CreationOptional<number>
+  declare appointmentId: ForeignKey<Appointment['id']>
+  declare patientId: ForeignKey<Patient['id']>
+  declare requestedByUserId: ForeignKey<User['id']>
+  declare preferredDates: string[]
+  declare note: string | null
+  declare status: CreationOptional<ChangeRequestStatus>
+  declare decision: ChangeDecision | null
+  declare answerNote: string | null
+  declare answeredByUserId: ForeignKey<User['id']> | null
+  declare answeredAt: Date | null
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+  declare requestedBy?: NonAttribute<User>
+  declare answeredBy?: NonAttribute<User | null>
+
+  static initModel(sequelize: Sequelize) {
+    AppointmentChangeRequest.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      preferredDates: { type: DataTypes.JSON, allowNull: false, field: 'preferred_dates' },
+      note: { type: DataTypes.TEXT, allowNull: true },
+      status: { type: DataTypes.STRING, allowNull: false, defaultValue: 'open' },
+      decision: { type: DataTypes.STRING, allowNull: true },
+      answerNote: { type: DataTypes.TEXT, allowNull: true, field: 'answer_note' },
+      answeredAt: { type: DataTypes.DATE, allowNull: true, field: 'answered_at' },
+      createdAt: { type: DataTypes.DATE, field: 'created_at' },
+      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+    }, { sequelize, tableName: 'appointment_change_requests' })
+  }
+}

@@ -1,0 +1,39 @@
+import { DataTypes, Model } from 'sequelize'
+import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
+import type { AppointmentStatus } from '../../../shared/scheduling/types'
+import type { Patient } from './patient'
+import type { User } from './user'
+
+/**
+ * An injection appointment, stored as a UTC instant and shown in the clinic's time zone.
+ * sequence counts the times it was moved (the iCalendar SEQUENCE of its calendar file).
+ */
+export class Appointment extends Model<InferAttributes<Appointment>, InferCreationAttributes<Appointment>> {
+  declare id: CreationOptional<number>
+  declare patientId: ForeignKey<Patient['id']>
+  declare startsAt: Date
+  declare durationMinutes: number
+  declare place: string
+  declare status: CreationOptional<AppointmentStatus>
+  declare sequence: CreationOptional<number>
+  declare confirmedAt: Date | null
+  declare confirmedByUserId: ForeignKey<User['id']> | null
+  declare createdByUserId: ForeignKey<User['id']> | null
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+  declare confirmedBy?: NonAttribute<User | null>
+
+  static initModel(sequelize: Sequelize) {
+    Appointment.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      startsAt: { type: DataTypes.DATE, allowNull: false, field: 'starts_at' },
+      durationMinutes: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 30, field: 'duration_minutes' },
+      place: { type: DataTypes.STRING, allowNull: false },
+      status: { type: DataTypes.STRING, allowNull: false, defaultValue: 'booked' },
+      sequence: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+      confirmedAt: { type: DataTypes.DATE, allowNull: true, field: 'confirmed_at' },
+      createdAt: { type: DataTypes.DATE, field: 'created_at' },
+      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+    }, { sequelize, tableName: 'appointments' })
+  }
+}

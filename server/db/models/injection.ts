@@ -1,0 +1,41 @@
+import { DataTypes, Model } from 'sequelize'
+import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
+import type { SiteCode } from '../../../shared/clinical/schedule'
+import type { Patient } from './patient'
+import type { Regimen } from './regimen'
+import type { User } from './user'
+
+/**
+ * One depot injection given. givenAt is the instant; givenOn is its calendar date in the
+ * clinic's time zone, the date the schedule counts from.
+ */
+export class Injection extends Model<InferAttributes<Injection>, InferCreationAttributes<Injection>> {
+  declare id: CreationOptional<number>
+  declare patientId: ForeignKey<Patient['id']>
+  declare regimenId: ForeignKey<Regimen['id']>
+  declare givenAt: Date
+  declare givenOn: string
+  declare site: SiteCode
+  declare lotNumber: string
+  declare lotExpiresOn: string
+  declare givenByUserId: ForeignKey<User['id']>
+  declare note: string | null
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+  declare regimen?: NonAttribute<Regimen>
+  declare givenBy?: NonAttribute<User>
+
+  static initModel(sequelize: Sequelize) {
+    Injection.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      givenAt: { type: DataTypes.DATE, allowNull: false, field: 'given_at' },
+      givenOn: { type: DataTypes.DATEONLY, allowNull: false, field: 'given_on' },
+      site: { type: DataTypes.STRING, allowNull: false },
+      lotNumber: { type: DataTypes.STRING, allowNull: false, field: 'lot_number' },
+      lotExpiresOn: { type: DataTypes.DATEONLY, allowNull: false, field: 'lot_expires_on' },
+      note: { type: DataTypes.TEXT, allowNull: true },
+      createdAt: { type: DataTypes.DATE, field: 'created_at' },
+      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+    }, { sequelize, tableName: 'injections' })
+  }
+}

@@ -1,0 +1,29 @@
+import { DataTypes, Model } from 'sequelize'
+import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
+import type { Patient } from './patient'
+import type { Regimen } from './regimen'
+import type { User } from './user'
+
+/** Which regimen a patient is on, from when; the current one has no end date. */
+export class PatientRegimen extends Model<InferAttributes<PatientRegimen>, InferCreationAttributes<PatientRegimen>> {
+  declare id: CreationOptional<number>
+  declare patientId: ForeignKey<Patient['id']>
+  declare regimenId: ForeignKey<Regimen['id']>
+  declare startsOn: string
+  declare endsOn: string | null
+  declare setByUserId: ForeignKey<User['id']> | null
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+  declare regimen?: NonAttribute<Regimen>
+
+  static initModel(sequelize: Sequelize) {
+    PatientRegimen.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      startsOn: { type: DataTypes.DATEONLY, allowNull: false, field: 'starts_on' },
+      endsOn: { type: DataTypes.DATEONLY, allowNull: true, field: 'ends_on' },
+      setByUserId: { type: DataTypes.INTEGER, allowNull: true, field: 'set_by_user_id' },
+      createdAt: { type: DataTypes.DATE, field: 'created_at' },
+      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+    }, { sequelize, tableName: 'patient_regimens' })
+  }
+}
