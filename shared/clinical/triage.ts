@@ -233,7 +233,8 @@ export const RAISE_RULES: readonly RaiseRule[] = [
   baselineRule('baseline-injection-site', ['injection-site-infection', 'injection-site-signs'], (entry, { baseline }) =>
     baseline !== null && injectionSiteGrade(entry) - baseline.injectionSite >= GRADE_RISE),
 
-  // Flare watch: one step up, at least urgent.
+  // Flare watch: one step up, at least urgent. Pain with no place ticked counts as
+  // possible bone pain; pain only in "other" places does not.
   flareRule('flare-watch-bone-pain', PAIN_RULES, ({ pain }) =>
     pain.worst >= 4 && pain.newOrWorse
     && (pain.locations.length === 0 || hasAny(pain.locations, BONE_LOCATIONS))),

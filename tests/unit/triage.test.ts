@@ -430,6 +430,11 @@ describe('flare watch (prescribing information, Warnings; NICE NG234; common pra
     expect(dayAfter.reasons).toEqual([])
   })
 
+  it('counts pain with no place ticked as possible bone pain, but not pain only in "other" places', () => {
+    expect(firedRules(entryWith(painOf(5), newOrWorse), { flareWatchActive: true })).toContain('flare-watch-bone-pain')
+    expect(firedRules(entryWith(painOf(5, 'other'), newOrWorse), { flareWatchActive: true })).not.toContain('flare-watch-bone-pain')
+  })
+
   it('raises any urinary difficulty or tingling to at least urgent on the first day', () => {
     expect(triage(entryWith(weakStream), contextOn(firstInjection)).level).toBe('urgent')
     expect(triage(entryWith(tingling), contextOn(firstInjection)).level).toBe('urgent')
