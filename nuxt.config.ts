@@ -43,7 +43,11 @@ export default defineNuxtConfig({
   nitro: {
     experimental: { tasks: true },
     scheduledTasks: {
-      '*/5 * * * *': ['outbox:send'],
+      '*/5 * * * *': ['outbox:send', 'triage:escalate'],
+      '0 13 * * *': ['triage:overdue'],
+      // Daily at 14:00 UTC, early morning in the demo clinic (America/Chicago).
+      '0 14 * * *': ['schedule:reminders'],
+      '0 15 * * *': ['diary:remind'],
     },
   },
   i18n: {

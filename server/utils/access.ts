@@ -19,6 +19,7 @@ export const PATIENT_ACTIONS = [
   'circle.read', // see who is in the care circle
   'circle.manage', // invite, change or remove caregivers
   'access-history.read', // the patient's own view of the audit trail
+  'triage.work', // work a triage queue item: claim, call, note, disposition, close
 ] as const
 export type PatientAction = (typeof PATIENT_ACTIONS)[number]
 
@@ -35,8 +36,8 @@ export type Relation =
   | { kind: 'none' }
 
 const STAFF_ALLOWED: Record<'nurse' | 'clinician' | 'admin', readonly PatientAction[]> = {
-  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read', 'circle.manage'],
-  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read'],
+  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read', 'circle.manage', 'triage.work'],
+  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read', 'triage.work'],
   admin: ['patient.read', 'appointment.schedule', 'patient.manage', 'circle.read', 'circle.manage'],
 }
 

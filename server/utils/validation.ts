@@ -1,4 +1,3 @@
-import { createError } from 'h3'
 import type { z, ZodError, ZodTypeAny } from 'zod'
 
 /** Field path -> locale keys of what is wrong there. */
@@ -13,15 +12,20 @@ export function fieldErrors(error: ZodError): Record<string, string[]> {
 }
 
 /**
- * A validator for readValidatedBody / getValidatedQuery: one 400 shape everywhere,
- * { message: 'errors.invalidInput', data: { fieldErrors } }, which the forms show at the field.
+ * What parseWith throws. h3's readValidatedBody / getValidatedQuery turn it into a 400
+ * whose message is 'errors.invalidInput' and whose data is this object, so every bad
+ * input answers { message, data: { fieldErrors } }, which the forms show at the field.
  */
+export class InvalidInput {
+  readonly message = 'errors.invalidInput'
+  constructor(readonly fieldErrors: Record<string, string[]>) {}
+}
+
+/** A validator for readValidatedBody and getValidatedQuery from a zod schema. */
 export function parseWith<T extends ZodTypeAny>(schema: T) {
   return (input: unknown): z.infer<T> => {
     const result = schema.safeParse(input)
-    if (!result.success) {
-      throw createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: fieldErrors(result.error) } })
-    }
+    if (!result.success) throw new InvalidInput(fieldErrors(result.error))
     return result.data
   }
 }

@@ -1,0 +1,33 @@
+import { z } from 'zod'
+import { DiaryEntry, TriageItem, User } from '../../../db/models'
+
+const querySchema = z.object({
+  page: z.coerce.number().int().min(1).max(10_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(20),
+})
+
+/** His diary entries, newest first, a page at a time. */
+export default defineEventHandler(async (event) => {
+  const { patient } = await authorizePatient(event, idParam(event), 'patient.read')
+  const { page, pageSize } = await getValidatedQuery(event, parseWith(querySchema))
+  const { rows, count } = await DiaryEntry.findAndCountAll({
+    where: { patientId: patient.id },
+    include: [
+      { model: User, as: 'enteredBy', attributes: ['id', 'name', 'role'] },
+      { model: TriageItem, as: 'triageItem', attributes: ['status', 'disposition'] },
+    ],
+    distinct: true,
+    order: [['submittedAt', 'DESC'], ['id', 'DESC']],
+    limit: pageSize,
+    offset: (page - 1) * pageSize,
+  })
+  return {
+    page,
+    pageSize,
+    total: count,
+    entries: rows.map((entry) => {
+      const item = (entry as DiaryEntry & { triageItem?: TriageItem | null }).triageItem
+      return { ...diaryView(entry, enteredByOf(entry.enteredBy!, patient)), review: item ? { status: item.status, disposition: item.disposition } : null }
+    }),
+  }
+})

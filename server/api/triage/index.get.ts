@@ -1,0 +1,45 @@
+import { literal, Op } from 'sequelize'
+import type { WhereOptions } from 'sequelize'
+import { LEVELS } from '../../../shared/clinical/triage'
+import { triageQuerySchema } from '../../../shared/schemas/triage'
+import { Patient, TriageItem, User } from '../../db/models'
+
+const LEVEL_RANK = literal(`CASE "TriageItem"."level" WHEN 'emergency' THEN 0 WHEN 'urgent' THEN 1 WHEN 'routine' THEN 2 ELSE 3 END`)
+
+/**
+ * The triage queue (nurses and clinicians): highest level first, then the most overdue or
+ * closest respond-by time; filters by level, status, assignee and patient; counts per level.
+ */
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ['nurse', 'clinician'])
+  const query = await getValidatedQuery(event, parseWith(triageQuerySchema))
+  const now = new Date()
+
+  const where: WhereOptions = {}
+  if (query.status === 'open') Object.assign(where, { status: { [Op.ne]: 'closed' } })
+  else Object.assign(where, { status: query.status })
+  if (query.assignee === 'me') Object.assign(where, { assigneeUserId: user.id })
+  if (query.assignee === 'nobody') Object.assign(where, { assigneeUserId: { [Op.is]: null } })
+  const patientWhere: WhereOptions = {}
+  if (query.q) {
+    const like = `%${query.q.replace(/[\\%_]/g, c => `\\${c}`)}%`
+    Object.assign(patientWhere, { [Op.or]: [{ clinicNumber: { [Op.like]: like } }, { '$patient.user.name$': { [Op.like]: like } }] })
+  }
+
+  const include = [{ model: Patient, as: 'patient', where: patientWhere, include: [{ model: User, as: 'user', attributes: ['id', 'name'] }] }]
+  const [items, total, counts] = await Promise.all([
+    TriageItem.findAll({
+      where: { ...where, ...(query.level ? { level: query.level } : {}) },
+      include: [...include, { model: User, as: 'assignee', attributes: ['id', 'name'] }],
+      order: [[LEVEL_RANK, 'ASC'], [literal('"TriageItem"."respond_by" IS NULL'), 'ASC'], ['respondBy', 'ASC'], ['id', 'ASC']],
+      limit: query.pageSize,
+      offset: (query.page - 1) * query.pageSize,
+      subQuery: false,
+    }),
+    TriageItem.count({ where: { ...where, ...(query.level ? { level: query.level } : {}) }, include }),
+    TriageItem.count({ where, include, group: ['level'] }) as unknown as Promise<{ level: string, count: number }[]>,
+  ])
+  await recordAudit(event, { actor: user, patientId: null, action: 'triage-queue.read', resource: event.path })
+  const countByLevel = Object.fromEntries(LEVELS.filter(l => l !== 'none').map(l => [l, counts.find(c => c.level === l)?.count ?? 0]))
+  return { page: query.page, pageSize: query.pageSize, total, counts: countByLevel, items: items.map(item => triageRow(item, now)) }
+})

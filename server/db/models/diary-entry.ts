@@ -1,0 +1,40 @@
+import { DataTypes, Model } from 'sequelize'
+import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
+import type { TriageLevel, TriageReason } from '../../../shared/clinical/triage'
+import type { DiaryEntryInput } from '../../../shared/schemas/diary'
+import type { Patient } from './patient'
+import type { User } from './user'
+
+/** One weekly diary entry with the triage the server worked out when it arrived. */
+export class DiaryEntry extends Model<InferAttributes<DiaryEntry>, InferCreationAttributes<DiaryEntry>> {
+  declare id: CreationOptional<number>
+  declare patientId: ForeignKey<Patient['id']>
+  declare enteredByUserId: ForeignKey<User['id']>
+  declare answers: DiaryEntryInput
+  declare level: TriageLevel
+  declare reasons: TriageReason[]
+  declare respondBy: Date | null
+  declare noteFlagged: boolean
+  declare flareWatchActive: boolean
+  declare rulesVersion: string
+  declare hotFlushScore: number
+  declare worstPain: number
+  declare submittedAt: Date
+  declare enteredBy?: NonAttribute<User>
+
+  static initModel(sequelize: Sequelize) {
+    DiaryEntry.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      answers: { type: DataTypes.JSON, allowNull: false },
+      level: { type: DataTypes.STRING, allowNull: false },
+      reasons: { type: DataTypes.JSON, allowNull: false },
+      respondBy: { type: DataTypes.DATE, allowNull: true, field: 'respond_by' },
+      noteFlagged: { type: DataTypes.BOOLEAN, allowNull: false, field: 'note_flagged' },
+      flareWatchActive: { type: DataTypes.BOOLEAN, allowNull: false, field: 'flare_watch_active' },
+      rulesVersion: { type: DataTypes.STRING, allowNull: false, field: 'rules_version' },
+      hotFlushScore: { type: DataTypes.INTEGER, allowNull: false, field: 'hot_flush_score' },
+      worstPain: { type: DataTypes.INTEGER, allowNull: false, field: 'worst_pain' },
+      submittedAt: { type: DataTypes.DATE, allowNull: false, field: 'submitted_at' },
+    }, { sequelize, tableName: 'diary_entries', timestamps: false })
+  }
+}

@@ -1,0 +1,46 @@
+import { DataTypes, Model } from 'sequelize'
+import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
+import type { TriageLevel, TriageReason } from '../../../shared/clinical/triage'
+import type { Disposition, TriageItemStatus, TriageSource } from '../../../shared/schemas/triage'
+import type { DiaryEntry } from './diary-entry'
+import type { Patient } from './patient'
+import type { User } from './user'
+
+/** One piece of work in the nurses' triage queue. */
+export class TriageItem extends Model<InferAttributes<TriageItem>, InferCreationAttributes<TriageItem>> {
+  declare id: CreationOptional<number>
+  declare patientId: ForeignKey<Patient['id']>
+  declare source: TriageSource
+  /** Unique per source occurrence (diary:<id>, overdue:<patient>:<due date>): never twice. */
+  declare sourceKey: string
+  declare diaryEntryId: ForeignKey<DiaryEntry['id']> | null
+  declare level: TriageLevel
+  declare reasons: TriageReason[]
+  declare respondBy: Date | null
+  declare status: CreationOptional<TriageItemStatus>
+  declare assigneeUserId: ForeignKey<User['id']> | null
+  declare disposition: Disposition | null
+  declare escalatedAt: Date | null
+  declare closedAt: Date | null
+  declare createdAt: CreationOptional<Date>
+  declare updatedAt: CreationOptional<Date>
+  declare patient?: NonAttribute<Patient>
+  declare assignee?: NonAttribute<User | null>
+
+  static initModel(sequelize: Sequelize) {
+    TriageItem.init({
+      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      source: { type: DataTypes.STRING, allowNull: false },
+      sourceKey: { type: DataTypes.STRING, allowNull: false, unique: true, field: 'source_key' },
+      level: { type: DataTypes.STRING, allowNull: false },
+      reasons: { type: DataTypes.JSON, allowNull: false },
+      respondBy: { type: DataTypes.DATE, allowNull: true, field: 'respond_by' },
+      status: { type: DataTypes.STRING, allowNull: false, defaultValue: 'new' },
+      disposition: { type: DataTypes.STRING, allowNull: true },
+      escalatedAt: { type: DataTypes.DATE, allowNull: true, field: 'escalated_at' },
+      closedAt: { type: DataTypes.DATE, allowNull: true, field: 'closed_at' },
+      createdAt: { type: DataTypes.DATE, field: 'created_at' },
+      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+    }, { sequelize, tableName: 'triage_items' })
+  }
+}

@@ -1,0 +1,76 @@
+import { Op } from 'sequelize'
+import { daysBetween } from '../../shared/clinical/schedule'
+import { DiaryEntry, Patient, TriageEvent, TriageItem, User } from '../db/models'
+
+/** A queue row: enough to choose what to open next; the name only ever goes to staff. */
+export function triageRow(item: TriageItem, now: Date) {
+  const patient = item.patient as (Patient & { user?: User }) | undefined
+  return {
+    id: item.id,
+    reference: itemReference(item.id),
+    patientId: item.patientId,
+    patientName: patient?.user?.name ?? '',
+    clinicNumber: patient?.clinicNumber ?? '',
+    source: item.source,
+    level: item.level,
+    reasons: item.reasons,
+    status: item.status,
+    respondBy: item.respondBy?.toISOString() ?? null,
+    overdue: item.status !== 'closed' && item.respondBy !== null && item.respondBy.getTime() < now.getTime(),
+    escalated: item.escalatedAt !== null,
+    assignee: item.assignee ? { id: item.assignee.id, name: item.assignee.name } : null,
+    disposition: item.disposition,
+    createdAt: item.createdAt.toISOString(),
+  }
+}
+
+/** Everything a nurse needs on the item page: the entry, the timeline and his context. */
+export async function triageDetail(item: TriageItem, now: Date) {
+  const clock = await scheduleClock(now)
+  const patient = await Patient.findByPk(item.patientId, { include: [{ model: User, as: 'user' }] }) as Patient & { user?: User }
+  const events = await TriageEvent.findAll({
+    where: { itemId: item.id },
+    include: [{ model: User, as: 'actor', attributes: ['id', 'name', 'role'] }],
+    order: [['at', 'ASC'], ['id', 'ASC']],
+  })
+  const entry = item.diaryEntryId
+    ? await DiaryEntry.findByPk(item.diaryEntryId, { include: [{ model: User, as: 'enteredBy', attributes: ['id', 'name', 'role'] }] })
+    : null
+  const trend = await DiaryEntry.findAll({
+    where: { patientId: item.patientId },
+    order: [['submittedAt', 'DESC'], ['id', 'DESC']],
+    limit: 8,
+    attributes: ['id', 'submittedAt', 'level', 'hotFlushScore', 'worstPain'],
+  })
+  const openItems = await TriageItem.findAll({
+    where: { patientId: item.patientId, status: { [Op.ne]: 'closed' }, id: { [Op.ne]: item.id } },
+    order: [['createdAt', 'DESC']],
+  })
+  const { flareWatch, ...schedule } = await computeSchedule(item.patientId, clock)
+  return {
+    ...triageRow(Object.assign(item, { patient }), now),
+    events: events.map(e => ({
+      id: e.id,
+      type: e.type,
+      note: e.note,
+      data: e.data,
+      at: e.at.toISOString(),
+      actor: e.actor ? { id: e.actor.id, name: e.actor.name, role: e.actor.role } : null,
+    })),
+    entry: entry ? diaryView(entry, enteredByOf(entry.enteredBy!, patient)) : null,
+    context: {
+      dateOfBirth: patient.dateOfBirth,
+      flareWatch,
+      schedule: {
+        regimen: schedule.regimen,
+        lastInjection: schedule.lastInjection,
+        daysSinceLastInjection: schedule.lastInjection ? daysBetween(schedule.lastInjection.date, clock.today) : null,
+        state: schedule.state,
+        dueDate: schedule.dueDate,
+        daysToDue: schedule.daysToDue,
+      },
+      trend: trend.map(t => ({ id: t.id, submittedAt: t.submittedAt.toISOString(), level: t.level, hotFlushScore: t.hotFlushScore, worstPain: t.worstPain })),
+      openItems: openItems.map(o => ({ id: o.id, reference: itemReference(o.id), level: o.level, status: o.status, source: o.source })),
+    },
+  }
+}

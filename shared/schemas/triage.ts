@@ -1,0 +1,42 @@
+import { z } from 'zod'
+import { LEVELS } from '../clinical/triage'
+
+export const TRIAGE_SOURCES = ['diary', 'overdue-injection', 'lab'] as const
+export type TriageSource = (typeof TRIAGE_SOURCES)[number]
+
+export const TRIAGE_STATUSES = ['new', 'in-progress', 'waiting', 'closed'] as const
+export type TriageItemStatus = (typeof TRIAGE_STATUSES)[number]
+
+export const DISPOSITIONS = ['self-care', 'visit-booked', 'sent-to-emergency', 'clinician-review', 'no-action'] as const
+export type Disposition = (typeof DISPOSITIONS)[number]
+
+export const TRIAGE_EVENT_TYPES = [
+  'created', 'claimed', 'note', 'call-attempted', 'call-reached', 'message-sent',
+  'waiting', 'escalated', 'disposition-set', 'closed',
+] as const
+export type TriageEventType = (typeof TRIAGE_EVENT_TYPES)[number]
+
+const note = z.string().trim().min(1, 'validation.triage.noteRequired').max(2000, 'validation.triage.noteTooLong')
+const optionalNote = z.string().trim().max(2000, 'validation.triage.noteTooLong').optional()
+
+/** What a nurse or clinician can record on an item: one body shape per event type. */
+export const triageActionSchema = z.discriminatedUnion('type', [
+  z.object({ type: z.literal('claim') }).strict(),
+  z.object({ type: z.literal('note'), note }).strict(),
+  z.object({ type: z.literal('call'), reached: z.boolean(), note: optionalNote }).strict(),
+  z.object({ type: z.literal('message'), note }).strict(),
+  z.object({ type: z.literal('waiting'), note: optionalNote }).strict(),
+  z.object({ type: z.literal('escalate'), note }).strict(),
+  z.object({ type: z.literal('disposition'), disposition: z.enum(DISPOSITIONS, { errorMap: () => ({ message: 'validation.triage.disposition' }) }), note: optionalNote }).strict(),
+  z.object({ type: z.literal('close'), note: optionalNote }).strict(),
+], { errorMap: () => ({ message: 'validation.triage.actionType' }) })
+export type TriageAction = z.infer<typeof triageActionSchema>
+
+export const triageQuerySchema = z.object({
+  level: z.enum(LEVELS).optional(),
+  status: z.enum([...TRIAGE_STATUSES, 'open'] as const).default('open'),
+  assignee: z.enum(['me', 'anyone', 'nobody']).default('anyone'),
+  q: z.string().trim().max(100).optional(),
+  page: z.coerce.number().int().min(1).max(10_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(50),
+}).strict()

@@ -1,0 +1,27 @@
+import type { TriageLevel, TriageReason } from '../clinical/triage'
+import type { DiaryEntryInput } from '../schemas/diary'
+import type { Disposition, TriageItemStatus } from '../schemas/triage'
+
+/** Who made an entry or a change: the patient himself, a caregiver, or clinic staff. */
+export interface EnteredBy {
+  name: string
+  relation: 'self' | 'caregiver' | 'staff'
+}
+
+/** A diary entry as the API returns it. */
+export interface DiaryEntryView {
+  id: number
+  patientId: number
+  submittedAt: string
+  level: TriageLevel
+  reasons: TriageReason[]
+  respondBy: string | null
+  noteFlagged: boolean
+  flareWatchActive: boolean
+  hotFlushScore: number
+  worstPain: number
+  answers: DiaryEntryInput
+  enteredBy: EnteredBy
+  /** The care team's review when the entry opened a triage queue item. */
+  review?: { status: TriageItemStatus, disposition: Disposition | null } | null
+}
