@@ -28,6 +28,7 @@ export function triageRow(item: TriageItem, now: Date) {
 export async function triageDetail(item: TriageItem, now: Date) {
   const clock = await scheduleClock(now)
   const patient = await Patient.findByPk(item.patientId, { include: [{ model: User, as: 'user' }] }) as Patient & { user?: User }
+  const assignee = item.assigneeUserId ? await User.findByPk(item.assigneeUserId, { attributes: ['id', 'name'] }) : null
   const events = await TriageEvent.findAll({
     where: { itemId: item.id },
     include: [{ model: User, as: 'actor', attributes: ['id', 'name', 'role'] }],
@@ -48,7 +49,7 @@ export async function triageDetail(item: TriageItem, now: Date) {
   })
   const { flareWatch, ...schedule } = await computeSchedule(item.patientId, clock)
   return {
-    ...triageRow(Object.assign(item, { patient }), now),
+    ...triageRow(Object.assign(item, { patient, assignee }), now),
     events: events.map(e => ({
       id: e.id,
       type: e.type,
