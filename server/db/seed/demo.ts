@@ -1,6 +1,7 @@
 import type { Sequelize, Transaction } from 'sequelize'
 import { CareGrant, ClinicSetting, Patient, User } from '../models'
 import type { Language, Role } from '../../../shared/types/roles'
+import { seedDemoSchedules } from './schedule'
 
 /**
  * The invented demo clinic, Larkspur Point Urology. Every person here is made up.
@@ -69,6 +70,7 @@ const STEPS: [string, SeedStep][] = [
       { key: 'clinicianAlertList', value: ['clinician@demo.tidewell.test'] },
     ], { transaction, ignoreDuplicates: true })
   }],
+  ['schedule', seedDemoSchedules],
 ]
 
 /** Runs every demo seed step that has not run yet; running it again changes nothing. */

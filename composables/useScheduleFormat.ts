@@ -1,0 +1,26 @@
+import type { ScheduleState, SiteCode } from '~~/shared/clinical/schedule'
+import type { AppointmentStatus, DueGroup } from '~~/shared/scheduling/types'
+
+const camel = (code: string) => code.replace(/-(\w)/g, (_, letter: string) => letter.toUpperCase())
+
+/**
+ * Words and dates for the injection schedule. Calendar dates (YYYY-MM-DD) keep their day
+ * whatever the reader's zone; appointment instants are shown in the clinic's time zone,
+ * the same on the server and in the browser.
+ */
+export function useScheduleFormat() {
+  const { t, d } = useI18n()
+  return {
+    /** A calendar date, e.g. "December 8, 2026". */
+    day: (date: string, key: 'short' | 'long' | 'weekday' = 'long') => d(new Date(`${date}T12:00:00Z`), { key, timeZone: 'UTC' }),
+    /** An instant in the clinic's time zone (the API sends the zone with the data). */
+    instant: (iso: string, timeZone: string, key: 'dateTime' | 'time' | 'weekday' | 'long' | 'short' = 'dateTime') =>
+      d(new Date(iso), { key, timeZone }),
+    site: (site: SiteCode) => t(`schedule.sites.${camel(site)}`),
+    state: (state: ScheduleState) => t(`schedule.states.${camel(state)}`),
+    appointmentStatus: (status: AppointmentStatus) => t(`schedule.appointment.statuses.${camel(status)}`),
+    group: (group: DueGroup) => t(`dueList.groups.${camel(group)}`),
+    groupHelp: (group: DueGroup) => t(`dueList.groupHelp.${camel(group)}`),
+    camel,
+  }
+}

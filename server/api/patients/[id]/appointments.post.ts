@@ -1,0 +1,55 @@
+import { Op } from 'sequelize'
+import { zonedDateTimeToUtc } from '../../../../shared/clinical/schedule'
+import { scheduleAppointmentSchema } from '../../../../shared/schemas/schedule'
+import { OPEN_APPOINTMENT_STATUSES } from '../../../../shared/scheduling/types'
+import { Appointment, AppointmentChangeRequest, User } from '../../../db/models'
+
+/**
+ * Books the patient's next appointment (staff). It replaces any open appointment still
+ * ahead of him, and the patient gets an e-mail with the calendar file, in his language.
+ */
+export default defineEventHandler(async (event) => {
+  const { patient, user } = await authorizePatient(event, idParam(event), 'appointment.schedule')
+  const clock = await scheduleClock()
+  const input = await readValidatedBody(event, parseWith(scheduleAppointmentSchema(clock.today)))
+  const tz = clock.settings.timeZone
+  const startsAt = zonedDateTimeToUtc(input.date, input.time, tz)
+  if (startsAt <= clock.now) {
+    throw createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { time: ['validation.schedule.pastTime'] } } })
+  }
+  const patientUser = await User.findByPk(patient.userId)
+  const sequelize = await useDb()
+  const appointment = await sequelize.transaction(async (transaction) => {
+    const replaced = await Appointment.findAll({
+      where: { patientId: patient.id, status: { [Op.in]: [...OPEN_APPOINTMENT_STATUSES] }, startsAt: { [Op.gte]: startOfClinicDay(clock.today, tz) } },
+      transaction,
+    })
+    for (const old of replaced) {
+      await old.update({ status: 'cancelled' }, { transaction })
+      await AppointmentChangeRequest.update({ status: 'withdrawn' }, { where: { appointmentId: old.id, patientId: patient.id, status: 'open' }, transaction })
+    }
+    const created = await Appointment.create({
+      patientId: patient.id,
+      startsAt,
+      durationMinutes: input.durationMinutes,
+      place: input.place,
+      confirmedAt: null,
+      confirmedByUserId: null,
+      createdByUserId: user.id,
+    }, { transaction })
+    if (patientUser?.active) {
+      await enqueueMail({
+        to: patientUser.email,
+        template: 'appointmentBooked',
+        language: patientUser.language,
+        params: { name: patientUser.name, when: formatAppointmentTime(startsAt, patientUser.language, tz), place: input.place },
+        linkPath: '/today',
+        attachments: [calendarAttachment(created, { language: patientUser.language, settings: clock.settings })],
+        dedupeKey: `appointment-booked:${created.id}`,
+      }, transaction)
+    }
+    return created
+  })
+  setResponseStatus(event, 201)
+  return shapeAppointment(appointment, patient.userId, tz)
+})

@@ -1,0 +1,66 @@
+import { Op } from 'sequelize'
+import { daysBetween, localDate } from '../../../shared/clinical/schedule'
+import { PLEASE_BOOK_DAYS, reminderLead } from '../../../shared/scheduling/planning'
+import { OPEN_APPOINTMENT_STATUSES } from '../../../shared/scheduling/types'
+import { Appointment, Patient, User } from '../../db/models'
+
+/**
+ * Daily: writes appointment reminders to the outbox at the clinic's lead days (default 7
+ * and 1) with the calendar file attached, and one "please book" e-mail to a patient with
+ * no appointment whose due date is PLEASE_BOOK_DAYS away or less. Every e-mail carries a
+ * dedupe key, so running the task twice on a day (or on two servers) sends nothing twice.
+ */
+export default defineTask({
+  meta: { name: 'schedule:reminders', description: 'Queue appointment reminders and "please book" e-mails' },
+  async run({ payload }) {
+    const clock = await scheduleClock(typeof payload.now === 'string' ? new Date(payload.now) : new Date())
+    const tz = clock.settings.timeZone
+    const sequelize = await useDb()
+    let reminders = 0
+    let pleaseBook = 0
+
+    const appointments = await Appointment.findAll({
+      where: { status: { [Op.in]: [...OPEN_APPOINTMENT_STATUSES] }, startsAt: { [Op.gt]: clock.now } },
+      include: [{ model: Patient, as: 'patient', include: [{ model: User, as: 'user', where: { active: true } }] }],
+      order: [['startsAt', 'ASC']],
+    })
+    for (const appointment of appointments) {
+      const user = (appointment as Appointment & { patient?: Patient }).patient?.user
+      if (!user) continue
+      const daysUntil = daysBetween(clock.today, localDate(appointment.startsAt, tz))
+      const lead = reminderLead(daysUntil, clock.settings.reminderLeadDays)
+      if (lead === null) continue
+      const queued = await sequelize.transaction(transaction => enqueueMail({
+        to: user.email,
+        template: 'appointmentReminder',
+        language: user.language,
+        params: { name: user.name, when: formatAppointmentTime(appointment.startsAt, user.language, tz), place: appointment.place, days: daysUntil },
+        linkPath: '/today',
+        attachments: [calendarAttachment(appointment, { language: user.language, settings: clock.settings })],
+        // The start is in the key: a moved appointment is reminded of again.
+        dedupeKey: `appointment-reminder:${appointment.id}:${appointment.startsAt.toISOString()}:${lead}`,
+      }, transaction))
+      if (queued) reminders++
+    }
+
+    const withAppointment = new Set(appointments.map(a => a.patientId))
+    const patients = await Patient.findAll({ include: [{ model: User, as: 'user', where: { active: true } }] })
+    for (const patient of patients) {
+      if (withAppointment.has(patient.id) || !patient.user) continue
+      const schedule = await computeSchedule(patient.id, clock)
+      if (schedule.state === 'not-started' || schedule.daysToDue === null || schedule.daysToDue > PLEASE_BOOK_DAYS) continue
+      const user = patient.user
+      const queued = await sequelize.transaction(transaction => enqueueMail({
+        to: user.email,
+        template: 'pleaseBook',
+        language: user.language,
+        params: { name: user.name, date: formatCalendarDate(schedule.dueDate!, user.language), clinic: clock.settings.clinicName },
+        linkPath: '/today',
+        // Once per due date.
+        dedupeKey: `please-book:${patient.id}:${schedule.dueDate}`,
+      }, transaction))
+      if (queued) pleaseBook++
+    }
+    return { result: { today: clock.today, reminders, pleaseBook } }
+  },
+})
