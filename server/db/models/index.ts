@@ -4,6 +4,7 @@ import { AppointmentChangeRequest } from './appointment-change-request'
 import { AuditEvent } from './audit-event'
 import { CareGrant } from './care-grant'
 import { CaughtMail } from './caught-mail'
+import { CircleInvitation } from './circle-invitation'
 import { ClinicSetting } from './clinic-setting'
 import { Injection } from './injection'
 import { OneTimeToken } from './one-time-token'
@@ -14,11 +15,11 @@ import { Regimen } from './regimen'
 import { SignInFailure } from './sign-in-failure'
 import { User } from './user'
 
-export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, ClinicSetting, Injection, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, User }
+export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, Injection, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, User }
 
 /** Registers every model and its associations on one connection. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [User, Patient, CareGrant, AuditEvent, OutboxMessage, OneTimeToken, SignInFailure, CaughtMail, ClinicSetting, Regimen, PatientRegimen, Injection, Appointment, AppointmentChangeRequest]) {
+  for (const model of [User, Patient, CareGrant, AuditEvent, OutboxMessage, OneTimeToken, SignInFailure, CaughtMail, ClinicSetting, CircleInvitation, Regimen, PatientRegimen, Injection, Appointment, AppointmentChangeRequest]) {
     model.initModel(sequelize)
   }
   User.hasOne(Patient, { foreignKey: { name: 'userId', field: 'user_id', allowNull: false }, as: 'patient' })
@@ -27,6 +28,12 @@ export function initModels(sequelize: Sequelize) {
   CareGrant.belongsTo(Patient, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'patient' })
   CareGrant.belongsTo(User, { foreignKey: { name: 'caregiverUserId', field: 'caregiver_user_id', allowNull: false }, as: 'caregiver' })
   CareGrant.belongsTo(User, { foreignKey: { name: 'grantedByUserId', field: 'granted_by_user_id', allowNull: false }, as: 'grantedBy' })
+  CareGrant.belongsTo(User, { foreignKey: { name: 'updatedByUserId', field: 'updated_by_user_id', allowNull: true }, as: 'updatedBy' })
+  CareGrant.belongsTo(User, { foreignKey: { name: 'revokedByUserId', field: 'revoked_by_user_id', allowNull: true }, as: 'revokedBy' })
+  CircleInvitation.belongsTo(Patient, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'patient' })
+  CircleInvitation.belongsTo(User, { foreignKey: { name: 'invitedByUserId', field: 'invited_by_user_id', allowNull: false }, as: 'invitedBy' })
+  CircleInvitation.belongsTo(User, { foreignKey: { name: 'acceptedByUserId', field: 'accepted_by_user_id', allowNull: true }, as: 'acceptedBy' })
+  CircleInvitation.belongsTo(CareGrant, { foreignKey: { name: 'grantId', field: 'grant_id', allowNull: true }, as: 'grant' })
   registerScheduleAssociations()
 }
 

@@ -1,0 +1,53 @@
+import { Op } from 'sequelize'
+import { circleInviteSchema } from '../../../../../shared/schemas/circle'
+import { CareGrant, CircleInvitation, User } from '../../../../db/models'
+
+/**
+ * Invites a caregiver by e-mail with the permissions the patient chose; staff may do it on
+ * his behalf (the invitation, and later the grant, name who sent it). Sending again to the
+ * same address replaces the earlier invitation.
+ */
+export default defineEventHandler(async (event) => {
+  const { patient, user } = await authorizePatient(event, idParam(event), 'circle.manage')
+  const input = await readValidatedBody(event, parseWith(circleInviteSchema))
+
+  const sequelize = await useDb()
+  const invitation = await sequelize.transaction(async (transaction) => {
+    const account = await User.findOne({ where: { email: input.email }, transaction })
+    if (account?.id === patient.userId) {
+      throw createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { email: ['validation.circle.notYourself'] } } })
+    }
+    const member = account && await CareGrant.findOne({ where: { patientId: patient.id, caregiverUserId: account.id, revokedAt: { [Op.is]: null } }, transaction })
+    if (member) {
+      throw createError({ statusCode: 409, message: 'errors.alreadyExists', data: { fieldErrors: { email: ['validation.circle.alreadyMember'] } } })
+    }
+    const now = new Date()
+    await CircleInvitation.update({ status: 'cancelled', closedAt: now }, { where: { patientId: patient.id, email: input.email, status: 'pending' }, transaction })
+    const created = await CircleInvitation.create({
+      patientId: patient.id,
+      email: input.email,
+      name: input.name,
+      language: account?.language ?? input.language,
+      canLogDiary: input.canLogDiary,
+      canManageAppointments: input.canManageAppointments,
+      invitedByUserId: user.id,
+      expiresAt: new Date(now.getTime() + TOKEN_TTL_MS['circle-invite']),
+      acceptedByUserId: null,
+      grantId: null,
+      closedAt: null,
+    }, { transaction })
+    const token = await issueToken({ userId: null, purpose: 'circle-invite', data: { invitationId: created.id } }, transaction, now)
+    await enqueueMail({
+      to: created.email,
+      template: 'circleInvite',
+      language: created.language,
+      params: { name: account?.name ?? created.name },
+      linkPath: `/circle/accept?token=${token}`,
+    }, transaction)
+    await recordAudit(event, { actor: user, patientId: patient.id, action: 'circle.invite', resource: `circle-invitation:${created.id}` }, transaction)
+    return created
+  })
+
+  setResponseStatus(event, 201)
+  return shapeInvitation((await CircleInvitation.findByPk(invitation.id, { include: [{ model: User, as: 'invitedBy' }] }))!)
+})

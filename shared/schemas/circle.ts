@@ -1,0 +1,52 @@
+import { z } from 'zod'
+import { LANGUAGES } from '../types/roles'
+import { emailSchema, isoDateSchema, newPasswordSchema } from './auth'
+
+// Error messages are locale keys; the client translates them at the field.
+
+const flag = z.boolean({ required_error: 'validation.generic.invalid_type', invalid_type_error: 'validation.generic.invalid_type' })
+
+/** What a caregiver may do besides viewing (viewing comes with every grant). */
+export const circlePermissionsSchema = z.object({
+  canLogDiary: flag,
+  canManageAppointments: flag,
+}).strict()
+
+/** The patient (or staff on his behalf) invites a caregiver by e-mail. */
+export const circleInviteSchema = z.object({
+  name: z.string({ required_error: 'validation.name.required' }).trim().min(1, 'validation.name.required').max(120, 'validation.name.tooLong'),
+  email: emailSchema,
+  language: z.enum(LANGUAGES).default('en'),
+  canLogDiary: flag,
+  canManageAppointments: flag,
+}).strict()
+
+/**
+ * Accepting an invitation. A caregiver who is new to Tidewell sends his name and a new
+ * password; one who already has an account sends nothing and must be signed in.
+ */
+export const acceptInvitationSchema = z.object({
+  name: z.string().trim().min(1, 'validation.name.required').max(120, 'validation.name.tooLong').optional(),
+  password: newPasswordSchema.optional(),
+}).strict()
+
+const positiveId = z.coerce.number({ invalid_type_error: 'validation.generic.invalid_type' }).int().positive().max(2 ** 31)
+const emptyAsUndefined = (value: unknown) => (value === '' ? undefined : value)
+
+/** Filters of the admin audit page and its CSV export (query string). */
+export const auditQuerySchema = z.object({
+  actor: z.preprocess(emptyAsUndefined, positiveId.optional()),
+  patient: z.preprocess(emptyAsUndefined, positiveId.optional()),
+  action: z.preprocess(emptyAsUndefined, z.string().trim().max(64).regex(/^[a-z0-9.-]+$/, 'validation.generic.invalid').optional()),
+  outcome: z.preprocess(emptyAsUndefined, z.enum(['allowed', 'denied']).optional()),
+  from: z.preprocess(emptyAsUndefined, isoDateSchema.optional()),
+  to: z.preprocess(emptyAsUndefined, isoDateSchema.optional()),
+  page: z.preprocess(emptyAsUndefined, positiveId.default(1)),
+}).strict().refine(v => !v.from || !v.to || v.from <= v.to, { path: ['to'], message: 'validation.audit.toBeforeFrom' })
+
+export const pageQuerySchema = z.object({
+  page: z.preprocess(emptyAsUndefined, positiveId.default(1)),
+}).strict()
+
+export type CircleInviteInput = z.infer<typeof circleInviteSchema>
+export type AuditQuery = z.infer<typeof auditQuerySchema>
