@@ -34,6 +34,20 @@ export default defineConfig({
           fileParallelism: false,
         },
       },
+      // Benchmarks print figures and assert no timings; only `npm run bench` runs them.
+      ...(process.env.TIDEWELL_BENCH === '1'
+        ? [{
+            extends: true as const,
+            test: {
+              name: 'bench',
+              include: ['tests/bench/**/*.bench.ts'],
+              globalSetup: ['tests/support/global-setup.ts'],
+              testTimeout: 900_000,
+              hookTimeout: 900_000,
+              fileParallelism: false,
+            },
+          }]
+        : []),
     ],
   },
 })
