@@ -27,6 +27,8 @@ export default defineEventHandler(async (event) => {
   }
 
   const include = [{ model: Patient, as: 'patient', where: patientWhere, include: [{ model: User, as: 'user', attributes: ['id', 'name'] }] }]
+  // Counting needs the patient join only to search by name or clinic number.
+  const countInclude = query.q ? include : []
   const [items, total, counts] = await Promise.all([
     TriageItem.findAll({
       where: { ...where, ...(query.level ? { level: query.level } : {}) },
@@ -36,8 +38,8 @@ export default defineEventHandler(async (event) => {
       offset: (query.page - 1) * query.pageSize,
       subQuery: false,
     }),
-    TriageItem.count({ where: { ...where, ...(query.level ? { level: query.level } : {}) }, include }),
-    TriageItem.count({ where, include, group: ['level'] }) as unknown as Promise<{ level: string, count: number }[]>,
+    TriageItem.count({ where: { ...where, ...(query.level ? { level: query.level } : {}) }, include: countInclude }),
+    TriageItem.count({ where, include: countInclude, group: ['level'] }) as unknown as Promise<{ level: string, count: number }[]>,
   ])
   await recordAudit(event, { actor: user, patientId: null, action: 'triage-queue.read', resource: event.path })
   const countByLevel = Object.fromEntries(LEVELS.filter(l => l !== 'none').map(l => [l, counts.find(c => c.level === l)?.count ?? 0]))
