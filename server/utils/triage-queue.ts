@@ -2,7 +2,7 @@ import { Op } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import type { TriageLevel, TriageReason } from '../../shared/clinical/triage'
 import type { TriageSource } from '../../shared/schemas/triage'
-import type { DiaryEntry} from '../db/models';
+import type { DiaryEntry } from '../db/models'
 import { Patient, TriageEvent, TriageItem, User } from '../db/models'
 
 /** Levels that reach the queue, and those that also alert the nurses on duty by e-mail. */
