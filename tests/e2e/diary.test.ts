@@ -141,6 +141,38 @@ describe('the weekly diary', () => {
     await page.close()
   })
 
+  it('a field message from the server is shown at the field, with nothing lost', async () => {
+    const page = await signInAs(EMERGENCY_PATIENT)
+    // Stand in for a server that refuses an answer the page let through.
+    await page.route('**/api/patients/*/diary', route => route.request().method() === 'POST'
+      ? route.fulfill({
+          status: 400,
+          contentType: 'application/json',
+          body: JSON.stringify({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { 'pain.worst': ['validation.diary.painRange'] } } }),
+        })
+      : route.continue())
+    await openDiary(page)
+    for (let step = 1; step <= 9; step++) {
+      await page.getByText(new RegExp(`^Step ${step} of ${STEPS}:`)).waitFor()
+      if (step === 3) await choose(page, 'What was your worst pain this past week?', '4')
+      const leaveIpss = page.getByRole('button', { name: 'Leave these questions for now' })
+      if (step === 4 && await leaveIpss.count()) await leaveIpss.click()
+      await next(page)
+    }
+    await atStep(page, 10, 'Check your answers')
+    await page.getByRole('button', { name: 'Send my diary' }).click()
+
+    await atStep(page, 3, 'Pain')
+    await page.getByText('Some answers need another look. See the messages below.').waitFor()
+    const worst = question(page, 'What was your worst pain this past week?')
+    await expect(worst.getByText('Choose a whole number from 0 (no pain) to 10 (worst pain you can imagine).').count()).resolves.toBe(1)
+    await expect(worst.getByRole('radio', { name: '4', exact: true }).isChecked()).resolves.toBe(true)
+    await page.getByRole('button', { name: 'Back to checking my answers' }).click()
+    await atStep(page, 10, 'Check your answers')
+    await page.getByText('4 out of 10').waitFor()
+    await page.close()
+  })
+
   it('a reload keeps the draft and the step', async () => {
     const page = await signInAs(EMERGENCY_PATIENT)
     await openDiary(page)
