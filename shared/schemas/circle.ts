@@ -12,9 +12,13 @@ export const circlePermissionsSchema = z.object({
   canManageAppointments: flag,
 }).strict()
 
-/** The patient (or staff on his behalf) invites a caregiver by e-mail. */
+/**
+ * The patient (or staff on his behalf) invites a caregiver by e-mail. The name goes into
+ * the e-mail's greeting, so it may not carry a web address or markup.
+ */
 export const circleInviteSchema = z.object({
-  name: z.string({ required_error: 'validation.name.required' }).trim().min(1, 'validation.name.required').max(120, 'validation.name.tooLong'),
+  name: z.string({ required_error: 'validation.name.required' }).trim().min(1, 'validation.name.required').max(120, 'validation.name.tooLong')
+    .refine(name => !/https?:|www\.|[<>]/i.test(name), 'validation.circle.nameNoLinks'),
   email: emailSchema,
   language: z.enum(LANGUAGES).default('en'),
   canLogDiary: flag,

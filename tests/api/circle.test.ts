@@ -154,6 +154,8 @@ describe('inviting someone who already has a caregiver account', () => {
     const bad = await patient.post(`/api/patients/${ids['LPU-1001']}/circle`, { name: '', email: 'not an address', canLogDiary: 'yes' })
     expect(bad.status).toBe(400)
     expect(Object.keys(bad.body.data.fieldErrors).sort()).toEqual(['canLogDiary', 'canManageAppointments', 'email', 'name'])
+    const link = await patient.post(`/api/patients/${ids['LPU-1001']}/circle`, { name: 'Click http://example.org', email: 'someone@demo.tidewell.test', canLogDiary: false, canManageAppointments: false })
+    expect(link.body.data.fieldErrors.name).toEqual(['validation.circle.nameNoLinks'])
   })
 
   it('a withdrawn invitation link stops working; sending again replaces the earlier link', async () => {
