@@ -16,8 +16,6 @@ const PUBLIC = new Set([
   'GET /api/clinic',
   `GET /api/circle-invitations/${'x'.repeat(43)}`,
   `POST /api/circle-invitations/${'x'.repeat(43)}/accept`,
-  `GET /api/circle-invitations/${'x'.repeat(43)}`,
-  `POST /api/circle-invitations/${'x'.repeat(43)}/accept`,
 ])
 
 /** Every server route, read from the file names (method in the name), with ids filled in. */

@@ -16,14 +16,9 @@ export class CareGrant extends Model<InferAttributes<CareGrant>, InferCreationAt
   declare updatedByUserId: ForeignKey<User['id']> | null
   /** Who removed the caregiver. */
   declare revokedByUserId: ForeignKey<User['id']> | null
-  /** Who last changed the permissions (the patient, or staff on his behalf). */
-  declare updatedByUserId: ForeignKey<User['id']> | null
-  /** Who removed the caregiver. */
-  declare revokedByUserId: ForeignKey<User['id']> | null
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
   declare caregiver?: NonAttribute<User>
-  declare grantedBy?: NonAttribute<User>
   declare grantedBy?: NonAttribute<User>
 
   static initModel(sequelize: Sequelize) {

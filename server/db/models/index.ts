@@ -5,7 +5,6 @@ import { AuditEvent } from './audit-event'
 import { CareGrant } from './care-grant'
 import { CaughtMail } from './caught-mail'
 import { CircleInvitation } from './circle-invitation'
-import { CircleInvitation } from './circle-invitation'
 import { ClinicSetting } from './clinic-setting'
 import { Injection } from './injection'
 import { OneTimeToken } from './one-time-token'
@@ -29,12 +28,6 @@ export function initModels(sequelize: Sequelize) {
   CareGrant.belongsTo(Patient, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'patient' })
   CareGrant.belongsTo(User, { foreignKey: { name: 'caregiverUserId', field: 'caregiver_user_id', allowNull: false }, as: 'caregiver' })
   CareGrant.belongsTo(User, { foreignKey: { name: 'grantedByUserId', field: 'granted_by_user_id', allowNull: false }, as: 'grantedBy' })
-  CareGrant.belongsTo(User, { foreignKey: { name: 'updatedByUserId', field: 'updated_by_user_id', allowNull: true }, as: 'updatedBy' })
-  CareGrant.belongsTo(User, { foreignKey: { name: 'revokedByUserId', field: 'revoked_by_user_id', allowNull: true }, as: 'revokedBy' })
-  CircleInvitation.belongsTo(Patient, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'patient' })
-  CircleInvitation.belongsTo(User, { foreignKey: { name: 'invitedByUserId', field: 'invited_by_user_id', allowNull: false }, as: 'invitedBy' })
-  CircleInvitation.belongsTo(User, { foreignKey: { name: 'acceptedByUserId', field: 'accepted_by_user_id', allowNull: true }, as: 'acceptedBy' })
-  CircleInvitation.belongsTo(CareGrant, { foreignKey: { name: 'grantId', field: 'grant_id', allowNull: true }, as: 'grant' })
   CareGrant.belongsTo(User, { foreignKey: { name: 'updatedByUserId', field: 'updated_by_user_id', allowNull: true }, as: 'updatedBy' })
   CareGrant.belongsTo(User, { foreignKey: { name: 'revokedByUserId', field: 'revoked_by_user_id', allowNull: true }, as: 'revokedBy' })
   CircleInvitation.belongsTo(Patient, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'patient' })
