@@ -40,7 +40,7 @@ describe('the weekly diary', () => {
     expect(await seriousAxeViolations(page)).toEqual([])
 
     await atStep(page, 1, 'Right-now check')
-    await next(page)
+    await page.getByRole('button', { name: 'None of these is happening: next', exact: true }).click()
 
     // Hot flushes: a bad number is refused at the field and the step does not move on.
     await atStep(page, 2, 'Hot flushes')
@@ -177,7 +177,7 @@ describe('the weekly diary', () => {
     const page = await signInAs(EMERGENCY_PATIENT)
     await openDiary(page)
     await atStep(page, 1, 'Right-now check')
-    await next(page)
+    await page.getByRole('button', { name: 'None of these is happening: next', exact: true }).click()
     await atStep(page, 2, 'Hot flushes')
     await page.getByLabel('On an average day, how many hot flushes did you have?').fill('6')
     await choose(page, 'How strong was the worst one?', 'Severe')
