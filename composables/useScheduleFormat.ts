@@ -3,6 +3,14 @@ import type { AppointmentStatus, DueGroup } from '~~/shared/scheduling/types'
 
 const camel = (code: string) => code.replace(/-(\w)/g, (_, letter: string) => letter.toUpperCase())
 
+/** The regimens Tidewell ships (DEFAULT_REGIMENS) have names in both languages; a clinic's own keep theirs. */
+const DEFAULT_REGIMEN_KEYS: Record<string, string> = {
+  '1-month depot': 'oneMonth',
+  '3-month depot': 'threeMonth',
+  '4-month depot': 'fourMonth',
+  '6-month depot': 'sixMonth',
+}
+
 /**
  * Words and dates for the injection schedule. Calendar dates (YYYY-MM-DD) keep their day
  * whatever the reader's zone; appointment instants are shown in the clinic's time zone,
@@ -16,6 +24,7 @@ export function useScheduleFormat() {
     /** An instant in the clinic's time zone (the API sends the zone with the data). */
     instant: (iso: string, timeZone: string, key: 'dateTime' | 'time' | 'weekday' | 'long' | 'short' = 'dateTime') =>
       d(new Date(iso), { key, timeZone }),
+    regimen: (name: string) => (DEFAULT_REGIMEN_KEYS[name] ? t(`regimens.defaultNames.${DEFAULT_REGIMEN_KEYS[name]}`) : name),
     site: (site: SiteCode) => t(`schedule.sites.${camel(site)}`),
     state: (state: ScheduleState) => t(`schedule.states.${camel(state)}`),
     appointmentStatus: (status: AppointmentStatus) => t(`schedule.appointment.statuses.${camel(status)}`),

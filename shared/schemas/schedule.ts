@@ -12,10 +12,13 @@ import { isoDateSchema } from './auth'
 
 const message = (key: string) => `validation.schedule.${key}`
 
-/** A needed calendar date; an empty field is "not answered". */
-const date = (required: string) => z.string({ required_error: message(required), invalid_type_error: message(required) })
+/**
+ * A needed calendar date; an empty field is "not answered". A rule on the date (in the
+ * past, after today) is only checked once there is a real date.
+ */
+const date = (required: string, rule?: (value: string) => boolean, key = '') => z.string({ required_error: message(required), invalid_type_error: message(required) })
   .min(1, message(required))
-  .pipe(isoDateSchema)
+  .pipe(rule ? isoDateSchema.refine(rule, message(key)) : isoDateSchema)
 
 /** An optional calendar date: an empty field counts as not given. */
 const optionalDate = (rule: (value: string) => boolean, key: string) => z.string().optional()
@@ -40,13 +43,13 @@ const positiveId = (required: string) => z.coerce.number({ required_error: messa
 /** Staff: record one injection that was given (never one in the future). */
 export function recordInjectionSchema(today: string) {
   return z.object({
-    date: date('dateRequired').refine(value => value <= today, message('futureDate')),
+    date: date('dateRequired', value => value <= today, 'futureDate'),
     time: clockTime,
     site: z.enum(SITES, { errorMap: () => ({ message: message('siteRequired') }) }),
     lotNumber: z.string({ required_error: message('lotRequired') }).trim()
       .min(1, message('lotRequired'))
       .max(40, message('lotInvalid'))
-      .regex(/^[A-Za-z0-9][A-Za-z0-9 ./-]*$/, message('lotInvalid')),
+      .regex(/^$|^[A-Za-z0-9][A-Za-z0-9 ./-]*$/, message('lotInvalid')),
     lotExpiresOn: date('expiryRequired'),
     regimenId: positiveId('regimenRequired'),
     note: optionalNote,
@@ -75,7 +78,7 @@ export const createRegimenSchema = z.object({
 /** Staff: book an appointment (today or later). */
 export function scheduleAppointmentSchema(today: string) {
   return z.object({
-    date: date('dateRequired').refine(value => value >= today, message('pastDate')),
+    date: date('dateRequired', value => value >= today, 'pastDate'),
     time: clockTime,
     place,
     durationMinutes: z.coerce.number({ invalid_type_error: message('durationRange') }).int(message('durationRange'))
@@ -90,7 +93,7 @@ export function scheduleAppointmentSchema(today: string) {
 export function changeRequestSchema(today: string) {
   const later = (value: string) => value > today
   return z.object({
-    firstChoice: date('choiceRequired').refine(later, message('choiceNotFuture')),
+    firstChoice: date('choiceRequired', later, 'choiceNotFuture'),
     secondChoice: optionalDate(later, 'choiceNotFuture'),
     thirdChoice: optionalDate(later, 'choiceNotFuture'),
     note: optionalNote,

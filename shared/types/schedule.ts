@@ -9,7 +9,7 @@ export interface ChangeRequestView {
   preferredDates: string[]
   note: string | null
   createdAt: string
-  /** Set when a caregiver or staff member asked on the patient's behalf. */
+  /** Who asked: the patient himself, a caregiver or staff (relation says which). */
   requestedBy: Attribution | null
 }
 
