@@ -11,11 +11,11 @@ export function isStaff(role: Role): role is StaffRole {
   return (STAFF_ROLES as readonly Role[]).includes(role)
 }
 
-/** Where each role lands after signing in. */
+/** Where each role lands after signing in: nurses and clinicians start at the triage queue. */
 export const HOME_BY_ROLE: Record<Role, string> = {
   patient: '/today',
   caregiver: '/today',
-  nurse: '/staff',
-  clinician: '/staff',
+  nurse: '/staff/triage',
+  clinician: '/staff/triage',
   admin: '/admin',
 }

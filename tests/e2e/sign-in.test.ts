@@ -18,9 +18,11 @@ describe('signing in', () => {
     await page.close()
   })
 
-  it('a nurse lands on the staff home', async () => {
+  it('a nurse lands on the triage queue, with the patients one link away', async () => {
     const page = await signInAs('nurse2@demo.tidewell.test')
-    expect(new URL(page.url()).pathname).toBe('/staff')
+    expect(new URL(page.url()).pathname).toBe('/staff/triage')
+    await page.getByRole('heading', { level: 1, name: 'Triage queue' }).waitFor()
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Patients' }).click()
     await page.getByRole('heading', { level: 1, name: 'Patients' }).waitFor()
     await page.getByRole('link', { name: 'Elias Marwood' }).waitFor()
     await page.close()
