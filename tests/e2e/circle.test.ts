@@ -11,17 +11,17 @@ await setupBrowser()
 const PATIENT = 'howard@demo.tidewell.test'
 const HELPER = { name: 'Wilhelmina Tillinghast', email: 'wilhelmina@demo.tidewell.test', password: 'kettle on by the window' }
 
-/** The invitation link from the app's own mail catcher (read as an admin). */
-async function invitationLink(email: string): Promise<string> {
+/** The invitation links sent to one address, from the app's own mail catcher (read as an admin). */
+async function invitationLinks(email: string, count: number): Promise<string[]> {
   const admin = await Client.signIn(url('/'), 'admin@demo.tidewell.test')
   const deadline = Date.now() + 15_000
   while (Date.now() < deadline) {
     const { messages } = (await admin.get('/api/admin/mail')).body as { messages: { to: string, text: string }[] }
-    const found = messages.find(m => m.to.includes(email))
-    if (found) return linkIn(found.text)
+    const found = messages.filter(m => m.to.includes(email))
+    if (found.length >= count) return found.map(m => linkIn(m.text))
     await new Promise(r => setTimeout(r, 200))
   }
-  throw new Error(`no invitation for ${email}`)
+  throw new Error(`fewer than ${count} invitations for ${email}`)
 }
 
 async function goTo(page: Page, path: string) {
@@ -66,7 +66,7 @@ describe('the care circle', () => {
     await patient.getByRole('heading', { name: 'Invitations not yet accepted' }).waitFor()
 
     // She follows the link from the e-mail and chooses a password.
-    const link = new URL(await invitationLink(HELPER.email))
+    const link = new URL((await invitationLinks(HELPER.email, 1))[0]!)
     expect(link.pathname).toBe('/circle/accept')
     const helper = await createPage(`${link.pathname}${link.search}`)
     await waitForHydration(helper, url(`${link.pathname}${link.search}`), 'hydration')
@@ -120,6 +120,61 @@ describe('the care circle', () => {
     expect(await seriousAxeViolations(patient)).toEqual([])
     await helper.close()
     await patient.close()
+  })
+
+  it('a caregiver who already has an account signs in to accept, then switches between the two men she helps', async () => {
+    const theodora = { name: 'Theodora Hathersage', email: 'theodora@demo.tidewell.test', password: 'morning fog on the estuary' }
+    for (const [email, clinicNumber] of [['cyril@demo.tidewell.test', 'LPU-1008'], ['kenji@demo.tidewell.test', 'LPU-1006']] as const) {
+      const patient = await Client.signIn(url('/'), email)
+      const patientId = (await patient.get('/api/_auth/session')).body.user.patientId as number
+      const sent = await patient.post(`/api/patients/${patientId}/circle`, { name: theodora.name, email: theodora.email, canLogDiary: false, canManageAppointments: clinicNumber === 'LPU-1006' })
+      expect(sent.status).toBe(201)
+    }
+    // The e-mails name nobody but her, so the page tells which man each link is from.
+    const [firstLink, secondLink] = await invitationLinks(theodora.email, 2)
+
+    // The first link makes her account.
+    const first = new URL(firstLink!)
+    const page = await createPage(`${first.pathname}${first.search}`)
+    await waitForHydration(page, url(`${first.pathname}${first.search}`), 'hydration')
+    const inviter = await page.getByText(/invited you to his care circle/).textContent()
+    const firstName = inviter!.includes('Cyril') ? 'Cyril Hathersage' : 'Kenji Arakawa-Dunn'
+    const secondName = firstName === 'Cyril Hathersage' ? 'Kenji Arakawa-Dunn' : 'Cyril Hathersage'
+    await page.getByLabel('New password', { exact: true }).fill(theodora.password)
+    await page.getByLabel('Type the new password again').fill(theodora.password)
+    await page.getByRole('button', { name: 'Create my account and accept' }).click()
+    await page.getByText(`You are helping: ${firstName}`).waitFor()
+    await page.close()
+
+    // The second, opened signed out: she signs in first, then adds him to her list.
+    const second = new URL(secondLink!)
+    const other = await createPage(`${second.pathname}${second.search}`)
+    await waitForHydration(other, url(`${second.pathname}${second.search}`), 'hydration')
+    await other.getByText(`You already have a Tidewell account (${theodora.email}).`, { exact: false }).waitFor()
+    await other.getByRole('link', { name: 'Sign in to accept' }).click()
+    await other.waitForURL(u => u.pathname === '/sign-in')
+    await waitForHydration(other, other.url(), 'hydration')
+    await other.getByLabel(/e-mail/i).fill(theodora.email)
+    await other.getByLabel(/^password$/i).fill(theodora.password)
+    await other.getByRole('button', { name: /^sign in$/i }).click()
+    await other.waitForURL(u => u.pathname === '/circle/accept')
+    await other.getByRole('button', { name: `Add ${secondName} to my list` }).click()
+    await other.waitForURL(u => u.pathname === '/today')
+    const banner = other.getByTestId('helping-banner')
+    await banner.getByText(`You are helping: ${secondName}`).waitFor()
+
+    // The switch says whose record is open after every change.
+    // Kenji let her manage appointments, Cyril did not; the banner says what she may do for whom.
+    const mayManage = (name: string) => name.startsWith('Kenji')
+    for (const name of [firstName, secondName]) {
+      await banner.getByRole('button', { name: `Switch to ${name}` }).click()
+      await banner.getByText(`You are helping: ${name}`).waitFor()
+      expect((await banner.textContent())!.includes('Confirm or change appointments'), name).toBe(mayManage(name))
+    }
+    await other.reload()
+    await other.getByText(`You are helping: ${secondName}`).waitFor()
+    expect(await seriousAxeViolations(other)).toEqual([])
+    await other.close()
   })
 
   it('an admin filters the audit trail by patient and downloads it', async () => {
