@@ -25,8 +25,13 @@ export function auditWhere(query: AuditQuery, timeZone: string): WhereOptions<Au
   }
 }
 
-/** 'viewed' for every *.read action, 'changed' for anything else. */
-export function auditKind(action: string): 'viewed' | 'changed' {
+/**
+ * Whether a line was a look or a change: a GET request (the policy writes the method at the
+ * start of the resource) or a *.read action is a look; anything else a change.
+ */
+export function auditKind(action: string, resource = ''): 'viewed' | 'changed' {
+  const method = resource.match(/^([A-Z]+) \//)?.[1]
+  if (method) return method === 'GET' || method === 'HEAD' ? 'viewed' : 'changed'
   return action.endsWith('.read') ? 'viewed' : 'changed'
 }
 

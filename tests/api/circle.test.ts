@@ -282,6 +282,8 @@ describe('access history', () => {
     const nurse = await Client.signIn(app.url, 'nurse2@demo.tidewell.test')
     await nurse.get(`/api/patients/${odellId}`)
     await nurse.get(`/api/patients/${odellId}/circle`)
+    // Free slots need appointment.schedule, but reading them is still a look.
+    expect((await nurse.get(`/api/patients/${odellId}/slots`)).status).toBe(200)
     // A refused attempt is for the admins' trail, not his page.
     const marisol = await Client.signIn(app.url, 'caregiver@demo.tidewell.test')
     await marisol.get(`/api/patients/${odellId}`)
@@ -289,6 +291,7 @@ describe('access history', () => {
     const history = await odell.get(`/api/patients/${odellId}/access-history`)
     expect(history.status).toBe(200)
     expect(history.body.events.map((e: { actor: { name: string, role: string }, action: string, kind: string }) => [e.actor.name, e.actor.role, e.action, e.kind])).toEqual([
+      ['Tobias Mwangi', 'nurse', 'appointment.schedule', 'viewed'],
       ['Tobias Mwangi', 'nurse', 'circle.read', 'viewed'],
       ['Tobias Mwangi', 'nurse', 'patient.read', 'viewed'],
     ])

@@ -25,9 +25,12 @@ describe('audit filters', () => {
 })
 
 describe('audit lines', () => {
-  it('every *.read action is a look, anything else a change', () => {
-    expect(['patient.read', 'circle.read', 'access-history.read'].map(auditKind)).toEqual(['viewed', 'viewed', 'viewed'])
-    expect(['diary.write', 'circle.remove', 'appointment.respond'].map(auditKind)).toEqual(['changed', 'changed', 'changed'])
+  it('a GET is a look and any other method a change; without a method, *.read actions are looks', () => {
+    expect(auditKind('appointment.schedule', 'GET /api/patients/1/slots')).toBe('viewed')
+    expect(auditKind('appointment.schedule', 'POST /api/patients/1/appointments')).toBe('changed')
+    expect(auditKind('circle.manage', 'DELETE /api/patients/1/circle/2')).toBe('changed')
+    expect(['patient.read', 'circle.read', 'access-history.read'].map(a => auditKind(a, 'care-grant:3'))).toEqual(['viewed', 'viewed', 'viewed'])
+    expect(['diary.write', 'circle.remove', 'appointment.respond'].map(a => auditKind(a))).toEqual(['changed', 'changed', 'changed'])
   })
 
   it('a CSV cell a spreadsheet would run as a formula starts with an apostrophe (OWASP, CSV injection)', () => {

@@ -29,6 +29,7 @@ export default defineEventHandler(async (event) => {
       actorRole: e.actorRole,
       patient: people.patient(e),
       action: e.action,
+      kind: auditKind(e.action, e.resource),
       resource: e.resource,
       outcome: e.outcome,
       ip: e.ip,

@@ -23,7 +23,7 @@ export default defineEventHandler(async (event) => {
     pageSize: AUDIT_PAGE_SIZE,
     events: rows.map((e) => {
       const actor = people.actor(e)
-      return { id: e.id, at: e.at, actor: { name: actor?.name ?? '', role: e.actorRole }, action: e.action, kind: auditKind(e.action) }
+      return { id: e.id, at: e.at, actor: { name: actor?.name ?? '', role: e.actorRole }, action: e.action, kind: auditKind(e.action, e.resource) }
     }),
   }
 })
