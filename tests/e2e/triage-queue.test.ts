@@ -34,6 +34,8 @@ describe('the triage queue', () => {
     await search.fill(CLINIC_NUMBER)
     await page.getByRole('button', { name: 'Search', exact: true }).click()
     await page.waitForURL(u => u.searchParams.get('q') === CLINIC_NUMBER)
+    // Other browser tests may have filled the queue; wait until only his item is listed.
+    await page.waitForFunction(number => [...document.querySelectorAll('tbody tr')].every(tr => tr.textContent?.includes(number)), CLINIC_NUMBER)
     const rows = page.locator('tbody tr')
     await expect(rows.count()).resolves.toBe(1)
     const row = rows.first()
