@@ -1,5 +1,7 @@
 import * as foundation from './0001-foundation'
 import * as schedule from './0002-schedule'
+import * as diary from './0003-diary'
+import * as triageQueue from './0004-triage-queue'
 import * as circle from './0005-circle'
 
 /**
@@ -9,5 +11,7 @@ import * as circle from './0005-circle'
 export const migrations = [
   { name: '0001-foundation', ...foundation },
   { name: '0002-schedule', ...schedule },
+  { name: '0003-diary', ...diary },
+  { name: '0004-triage-queue', ...triageQueue },
   { name: '0005-circle', ...circle },
 ]

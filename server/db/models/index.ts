@@ -6,6 +6,7 @@ import { CareGrant } from './care-grant'
 import { CaughtMail } from './caught-mail'
 import { CircleInvitation } from './circle-invitation'
 import { ClinicSetting } from './clinic-setting'
+import { DiaryEntry } from './diary-entry'
 import { Injection } from './injection'
 import { OneTimeToken } from './one-time-token'
 import { OutboxMessage } from './outbox-message'
@@ -13,13 +14,15 @@ import { Patient } from './patient'
 import { PatientRegimen } from './patient-regimen'
 import { Regimen } from './regimen'
 import { SignInFailure } from './sign-in-failure'
+import { TriageEvent } from './triage-event'
+import { TriageItem } from './triage-item'
 import { User } from './user'
 
-export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, Injection, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, User }
+export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TriageEvent, TriageItem, User }
 
 /** Registers every model and its associations on one connection. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [User, Patient, CareGrant, AuditEvent, OutboxMessage, OneTimeToken, SignInFailure, CaughtMail, ClinicSetting, CircleInvitation, Regimen, PatientRegimen, Injection, Appointment, AppointmentChangeRequest]) {
+  for (const model of [User, Patient, CareGrant, AuditEvent, OutboxMessage, OneTimeToken, SignInFailure, CaughtMail, ClinicSetting, CircleInvitation, DiaryEntry, Regimen, PatientRegimen, Injection, Appointment, AppointmentChangeRequest, TriageItem, TriageEvent]) {
     model.initModel(sequelize)
   }
   User.hasOne(Patient, { foreignKey: { name: 'userId', field: 'user_id', allowNull: false }, as: 'patient' })
@@ -35,6 +38,7 @@ export function initModels(sequelize: Sequelize) {
   CircleInvitation.belongsTo(User, { foreignKey: { name: 'acceptedByUserId', field: 'accepted_by_user_id', allowNull: true }, as: 'acceptedBy' })
   CircleInvitation.belongsTo(CareGrant, { foreignKey: { name: 'grantId', field: 'grant_id', allowNull: true }, as: 'grant' })
   registerScheduleAssociations()
+  registerDiaryAndTriageAssociations()
 }
 
 /** The injection schedule: regimens, injections, appointments and change requests. */
@@ -54,4 +58,18 @@ function registerScheduleAssociations() {
   AppointmentChangeRequest.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
   AppointmentChangeRequest.belongsTo(User, { foreignKey: { name: 'requestedByUserId', field: 'requested_by_user_id', allowNull: false }, as: 'requestedBy' })
   AppointmentChangeRequest.belongsTo(User, { foreignKey: { name: 'answeredByUserId', field: 'answered_by_user_id', allowNull: true }, as: 'answeredBy' })
+}
+
+function registerDiaryAndTriageAssociations() {
+  Patient.hasMany(DiaryEntry, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'diaryEntries' })
+  DiaryEntry.belongsTo(Patient, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'patient' })
+  DiaryEntry.belongsTo(User, { foreignKey: { name: 'enteredByUserId', field: 'entered_by_user_id', allowNull: false }, as: 'enteredBy' })
+  Patient.hasMany(TriageItem, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'triageItems' })
+  TriageItem.belongsTo(Patient, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'patient' })
+  TriageItem.belongsTo(DiaryEntry, { foreignKey: { name: 'diaryEntryId', field: 'diary_entry_id', allowNull: true }, as: 'diaryEntry' })
+  DiaryEntry.hasOne(TriageItem, { foreignKey: { name: 'diaryEntryId', field: 'diary_entry_id', allowNull: true }, as: 'triageItem' })
+  TriageItem.belongsTo(User, { foreignKey: { name: 'assigneeUserId', field: 'assignee_user_id', allowNull: true }, as: 'assignee' })
+  TriageItem.hasMany(TriageEvent, { foreignKey: { name: 'itemId', field: 'item_id', allowNull: false }, as: 'events' })
+  TriageEvent.belongsTo(TriageItem, { foreignKey: { name: 'itemId', field: 'item_id', allowNull: false }, as: 'item' })
+  TriageEvent.belongsTo(User, { foreignKey: { name: 'actorUserId', field: 'actor_user_id', allowNull: true }, as: 'actor' })
 }
