@@ -1,9 +1,10 @@
 import { Op } from 'sequelize'
 import { daysBetween } from '../../shared/clinical/schedule'
+import type { TriageDetailView, TriageRowView } from '../../shared/types/triage'
 import { DiaryEntry, Patient, TriageEvent, TriageItem, User } from '../db/models'
 
 /** A queue row: enough to choose what to open next; the name only ever goes to staff. */
-export function triageRow(item: TriageItem, now: Date) {
+export function triageRow(item: TriageItem, now: Date): TriageRowView {
   const patient = item.patient as (Patient & { user?: User }) | undefined
   return {
     id: item.id,
@@ -25,7 +26,7 @@ export function triageRow(item: TriageItem, now: Date) {
 }
 
 /** Everything a nurse needs on the item page: the entry, the timeline and his context. */
-export async function triageDetail(item: TriageItem, now: Date) {
+export async function triageDetail(item: TriageItem, now: Date): Promise<TriageDetailView> {
   const clock = await scheduleClock(now)
   const patient = await Patient.findByPk(item.patientId, { include: [{ model: User, as: 'user' }] }) as Patient & { user?: User }
   const assignee = item.assigneeUserId ? await User.findByPk(item.assigneeUserId, { attributes: ['id', 'name'] }) : null
