@@ -108,7 +108,7 @@ describe('the triage queue', () => {
     const own = await signInAs(PATIENT)
     await own.goto(url('/diary'))
     await own.getByRole('heading', { level: 1, name: 'Your diary' }).waitFor()
-    await own.getByText(/a visit was booked|The clinic booked a visit for you/).first().waitFor()
+    await own.getByText('The care team has dealt with this. What the care team did: The clinic booked a visit for you').waitFor()
     await own.close()
   })
 })
