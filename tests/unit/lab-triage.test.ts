@@ -1,0 +1,165 @@
+import { describe, expect, it } from 'vitest'
+import { LAB_RULES, evaluateLabTriage, interpretLab } from '../../shared/clinical/lab-triage'
+import type { LabContext, LabReading } from '../../shared/clinical/lab-triage'
+import { labResultSchema } from '../../shared/schemas/labs'
+
+/*
+ * The lab rules (clinic defaults), each checked where it fires and where it just misses,
+ * with the numbers worked out again from the formulas in REFERENCES.md.
+ */
+
+let nextId = 1
+const reading = (kind: LabReading['kind'], value: number, takenOn = '2025-06-02', extra: Partial<LabReading> = {}): LabReading =>
+  ({ id: nextId++, kind, takenOn, value, unit: { testosterone: 'ng/dL', psa: 'ng/mL', hba1c: '%', qtc: 'ms' }[kind], heartRate: kind === 'qtc' ? 60 : null, ...extra })
+
+const onTherapy: LabContext = { history: [], firstInjectionOn: '2025-01-06' }
+
+function triage(result: LabReading, context: LabContext = onTherapy) {
+  return evaluateLabTriage(interpretLab(result, { ...context, history: [...context.history, result] }))
+}
+const rulesOf = (result: ReturnType<typeof triage>) => result.reasons.map(r => r.rule)
+
+describe('every rule', () => {
+  it('names its published source, or says common practice or from memory', () => {
+    for (const rule of LAB_RULES) {
+      expect(rule.source, rule.id).toMatch(/(\d{4}|common practice|from memory)/)
+      expect(rule.reasonKey).toBe(`labs.rules.${rule.id}.reason`)
+    }
+  })
+})
+
+describe('testosterone escape (Oefelein 2000; EAU, from memory): at or above 50 ng/dL on therapy -> urgent', () => {
+  it('50 ng/dL fires; 49.9 ng/dL just misses', () => {
+    const fired = triage(reading('testosterone', 50))
+    expect(fired.level).toBe('urgent')
+    expect(rulesOf(fired)).toEqual(['testosterone-escape'])
+    expect(fired.reasons[0]!.source).toMatch(/Oefelein/)
+    expect(triage(reading('testosterone', 49.9)).level).toBe('none')
+  })
+
+  it('in nmol/L (ng/dL = nmol/L / 0.03467): 1.74 nmol/L = 50.2 ng/dL fires; 1.73 nmol/L = 49.9 ng/dL misses', () => {
+    expect(1.74 / 0.03467).toBeGreaterThan(50)
+    expect(1.73 / 0.03467).toBeLessThan(50)
+    expect(triage(reading('testosterone', 1.74, '2025-06-02', { unit: 'nmol/L' })).level).toBe('urgent')
+    expect(triage(reading('testosterone', 1.73, '2025-06-02', { unit: 'nmol/L' })).level).toBe('none')
+  })
+
+  it('not before therapy: no injection, or a sample in the first 28 days after the first one', () => {
+    expect(triage(reading('testosterone', 420), { history: [], firstInjectionOn: null }).level).toBe('none')
+    expect(triage(reading('testosterone', 420, '2025-02-02'), onTherapy).level).toBe('none') // day 27
+    expect(triage(reading('testosterone', 420, '2025-02-03'), onTherapy).level).toBe('urgent') // day 28
+  })
+
+  it('shows both units and both levels: 15 ng/dL is castrate and below the stricter 20 ng/dL', () => {
+    const result = interpretLab(reading('testosterone', 15), onTherapy)
+    expect(result).toMatchObject({ kind: 'testosterone', castrate: true, belowStrictLevel: true, onTherapy: true })
+    if (result.kind === 'testosterone') expect(result.nmolPerL).toBeCloseTo(15 * 0.03467, 6)
+  })
+})
+
+describe('QTc (CTCAE v5.0; grade from Fridericia QT / cbrt(60 / HR))', () => {
+  it('at 60 bpm RR = 1 s, so QTc = QT: 501 ms is grade 3 -> urgent; 500 ms is grade 2 -> routine; 480 ms grade 1 -> none', () => {
+    const three = triage(reading('qtc', 501))
+    expect(three.level).toBe('urgent')
+    expect(rulesOf(three)).toEqual(['qtc-grade-3'])
+    expect(three.reasons[0]!.source).toMatch(/CTCAE v5\.0/)
+    const two = triage(reading('qtc', 500))
+    expect(two.level).toBe('routine')
+    expect(rulesOf(two)).toEqual(['qtc-grade-2'])
+    expect(triage(reading('qtc', 481)).level).toBe('routine')
+    expect(triage(reading('qtc', 480)).level).toBe('none')
+  })
+
+  it('Fridericia drives the grade: QT 440 ms at 90 bpm is 440 / cbrt(0.667) = 504 ms (Bazett 539 ms) -> urgent', () => {
+    const rr = 60 / 90
+    const result = interpretLab(reading('qtc', 440, '2025-06-02', { heartRate: 90 }), onTherapy)
+    expect(result).toMatchObject({ kind: 'qtc', grade: 3, highRisk: true })
+    if (result.kind !== 'qtc') throw new Error('kind')
+    expect(result.fridericia).toBeCloseTo(440 / Math.cbrt(rr), 6)
+    expect(Math.round(result.fridericia)).toBe(504)
+    expect(Math.round(result.bazett)).toBe(539)
+  })
+
+  it('a rise of more than 60 ms from his first QTc is grade 3: 420 -> 481 (+61) urgent; 421 -> 481 (+60) only grade 2', () => {
+    const baseline = reading('qtc', 420, '2025-01-10')
+    const rise = reading('qtc', 481)
+    expect(triage(rise, { ...onTherapy, history: [baseline] }).level).toBe('urgent')
+    const result = interpretLab(rise, { ...onTherapy, history: [baseline, rise] })
+    expect(result).toMatchObject({ kind: 'qtc', baselineFridericia: 420, riseMs: 61 })
+    expect(triage(reading('qtc', 481), { ...onTherapy, history: [reading('qtc', 421, '2025-01-10')] }).level).toBe('routine')
+  })
+})
+
+describe('HbA1c (ADA Standards of Care 2025: 6.5 % or more is the diabetes range) -> routine', () => {
+  it('6.5 % fires; 6.4 % (prediabetes) just misses', () => {
+    const fired = triage(reading('hba1c', 6.5))
+    expect(fired.level).toBe('routine')
+    expect(rulesOf(fired)).toEqual(['a1c-diabetes-range'])
+    expect(fired.reasons[0]!.source).toMatch(/ADA/)
+    expect(triage(reading('hba1c', 6.4)).level).toBe('none')
+  })
+
+  it('6.8 %: eAG 28.7 x 6.8 - 46.7 = 148 mg/dL (8.2 mmol/L), IFCC 10.93 x 6.8 - 23.5 = 51 mmol/mol', () => {
+    const result = interpretLab(reading('hba1c', 6.8), onTherapy)
+    if (result.kind !== 'hba1c') throw new Error('kind')
+    expect(Math.round(result.eagMgDl)).toBe(148)
+    expect(result.eagMmolL).toBeCloseTo(1.5944 * 6.8 - 2.5944, 6)
+    expect(Math.round(result.ifccMmolPerMol)).toBe(51)
+    expect(result.category).toBe('diabetes')
+  })
+})
+
+describe('PSA doubling time under 3 months (Pound 1999 log-linear; threshold common practice, from memory) -> routine', () => {
+  // Doubling every d days: ln 2 / slope = d exactly. Three months = 3 x 365.25 / 12 = 91.31 days.
+  const series = (everyDays: number) => {
+    const dates = ['2025-01-01', '', '']
+    const start = Date.UTC(2025, 0, 1)
+    dates[1] = new Date(start + everyDays * 86_400_000).toISOString().slice(0, 10)
+    dates[2] = new Date(start + 2 * everyDays * 86_400_000).toISOString().slice(0, 10)
+    return [reading('psa', 1, dates[0]), reading('psa', 2, dates[1]), reading('psa', 4, dates[2])]
+  }
+  const lastOf = (values: LabReading[]) => triage(values[2]!, { ...onTherapy, history: values.slice(0, 2) })
+
+  it('doubling every 91 days (2.99 months) fires; every 92 days (3.02 months) just misses', () => {
+    expect(91 / (365.25 / 12)).toBeLessThan(3)
+    expect(92 / (365.25 / 12)).toBeGreaterThan(3)
+    const fired = lastOf(series(91))
+    expect(fired.level).toBe('routine')
+    expect(rulesOf(fired)).toEqual(['psa-fast-doubling'])
+    expect(fired.reasons[0]!.source).toMatch(/Pound/)
+    expect(lastOf(series(92)).level).toBe('none')
+  })
+
+  it('REFERENCES check: day 0 1.0, 90 1.5, 180 2.1, 270 3.2 -> about 163 days, over his values up to this one', () => {
+    const values = [reading('psa', 1.0, '2025-01-01'), reading('psa', 1.5, '2025-04-01'), reading('psa', 2.1, '2025-06-30'), reading('psa', 3.2, '2025-09-28')]
+    const result = interpretLab(values[3]!, { ...onTherapy, history: values })
+    expect(result).toMatchObject({ kind: 'psa', valuesUsed: 4, doubling: { status: 'rising' } })
+    if (result.kind === 'psa' && result.doubling.status === 'rising') expect(Math.round(result.doubling.days)).toBe(163)
+    // The second value sees only two: too few.
+    expect(interpretLab(values[1]!, { ...onTherapy, history: values })).toMatchObject({ valuesUsed: 2, doubling: { status: 'too-few-values' } })
+  })
+
+  it('a falling PSA is "not rising" and raises nothing; fewer than 3 values neither', () => {
+    const falling = [reading('psa', 8, '2025-01-01'), reading('psa', 2, '2025-02-01'), reading('psa', 0.5, '2025-03-01')]
+    const result = interpretLab(falling[2]!, { ...onTherapy, history: falling })
+    expect(result).toMatchObject({ doubling: { status: 'not-rising' } })
+    expect(evaluateLabTriage(result).level).toBe('none')
+    expect(triage(reading('psa', 4))).toEqual({ level: 'none', reasons: [] })
+  })
+})
+
+describe('the lab result schema', () => {
+  const schema = labResultSchema('2025-06-02')
+  it('takes one shape per kind and refuses a future date, a missing unit and values out of range', () => {
+    expect(schema.safeParse({ kind: 'testosterone', takenOn: '2025-06-02', unit: 'ng/dL', value: '80' }).success).toBe(true)
+    expect(schema.safeParse({ kind: 'qtc', takenOn: '2025-06-01', value: 430, heartRate: 72 }).success).toBe(true)
+    const bad = schema.safeParse({ kind: 'testosterone', takenOn: '2025-06-03', value: 80 })
+    expect(bad.success).toBe(false)
+    const messages = bad.error!.issues.map(i => `${i.path.join('.')}:${i.message}`)
+    expect(messages).toEqual(expect.arrayContaining(['takenOn:validation.labs.futureDate', 'unit:validation.labs.unitRequired']))
+    expect(schema.safeParse({ kind: 'hba1c', takenOn: '2025-06-01', value: 68 }).success).toBe(false)
+    expect(schema.safeParse({ kind: 'testosterone', takenOn: '2025-06-01', unit: 'nmol/L', value: 80 }).success).toBe(false)
+    expect(schema.safeParse({ kind: 'psa', takenOn: '2025-06-01', value: 0 }).success).toBe(false)
+    expect(schema.safeParse({ kind: 'glucose', takenOn: '2025-06-01', value: 5 }).success).toBe(false)
+  })
+})
