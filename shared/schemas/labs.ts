@@ -12,9 +12,9 @@ import { isoDateSchema } from './auth'
 
 const message = (key: string) => `validation.labs.${key}`
 
-/** A number from a form field (an empty field is "not answered"). */
+/** A number from a form field (an empty field is "not answered"; a decimal comma is accepted). */
 const measured = (min: number, max: number) => z.preprocess(
-  value => (value === '' || value === null ? undefined : value),
+  value => (typeof value === 'string' ? value.trim().replace(',', '.') || undefined : value ?? undefined),
   z.coerce.number({ required_error: message('valueRequired'), invalid_type_error: message('valueRequired') })
     .finite(message('valueRequired'))
     .min(min, message('valueOutOfRange'))

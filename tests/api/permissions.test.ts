@@ -68,6 +68,8 @@ const ROUTES: Route[] = [
   ['DELETE', '/api/patients/:id/circle/:grantId', 'circle.manage'],
   ['DELETE', '/api/patients/:id/circle/invitations/:invitationId', 'circle.manage'],
   ['GET', '/api/patients/:id/access-history', 'access-history.read'],
+  ['GET', '/api/patients/:id/labs', 'patient.read'],
+  ['POST', '/api/patients/:id/labs', 'patient.manage', { roles: NURSES_AND_CLINICIANS }],
   ['GET', '/api/appointments/:id/calendar.ics', 'patient.read'],
   ['POST', '/api/appointments/:id/confirm', 'appointment.respond', { ok: 200 }],
   ['POST', '/api/appointments/:id/change-request', 'appointment.respond'],

@@ -3,6 +3,7 @@ import * as schedule from './0002-schedule'
 import * as diary from './0003-diary'
 import * as triageQueue from './0004-triage-queue'
 import * as circle from './0005-circle'
+import * as labs from './0006-labs'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -14,4 +15,5 @@ export const migrations = [
   { name: '0003-diary', ...diary },
   { name: '0004-triage-queue', ...triageQueue },
   { name: '0005-circle', ...circle },
+  { name: '0006-labs', ...labs },
 ]

@@ -8,6 +8,7 @@ import { CircleInvitation } from './circle-invitation'
 import { ClinicSetting } from './clinic-setting'
 import { DiaryEntry } from './diary-entry'
 import { Injection } from './injection'
+import { LabResult } from './lab-result'
 import { OneTimeToken } from './one-time-token'
 import { OutboxMessage } from './outbox-message'
 import { Patient } from './patient'
@@ -18,7 +19,7 @@ import { TriageEvent } from './triage-event'
 import { TriageItem } from './triage-item'
 import { User } from './user'
 
-export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TriageEvent, TriageItem, User }
+export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TriageEvent, TriageItem, User }
 
 /** Registers every model and its associations on one connection. */
 export function initModels(sequelize: Sequelize) {
@@ -39,6 +40,8 @@ export function initModels(sequelize: Sequelize) {
   CircleInvitation.belongsTo(CareGrant, { foreignKey: { name: 'grantId', field: 'grant_id', allowNull: true }, as: 'grant' })
   registerScheduleAssociations()
   registerDiaryAndTriageAssociations()
+  LabResult.initModel(sequelize)
+  registerLabAssociations()
 }
 
 /** The injection schedule: regimens, injections, appointments and change requests. */
@@ -72,4 +75,10 @@ function registerDiaryAndTriageAssociations() {
   TriageItem.hasMany(TriageEvent, { foreignKey: { name: 'itemId', field: 'item_id', allowNull: false }, as: 'events' })
   TriageEvent.belongsTo(TriageItem, { foreignKey: { name: 'itemId', field: 'item_id', allowNull: false }, as: 'item' })
   TriageEvent.belongsTo(User, { foreignKey: { name: 'actorUserId', field: 'actor_user_id', allowNull: true }, as: 'actor' })
+}
+
+function registerLabAssociations() {
+  Patient.hasMany(LabResult, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'labResults' })
+  LabResult.belongsTo(Patient, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'patient' })
+  LabResult.belongsTo(User, { foreignKey: { name: 'enteredByUserId', field: 'entered_by_user_id', allowNull: false }, as: 'enteredBy' })
 }

@@ -1,6 +1,7 @@
 import type { Sequelize, Transaction } from 'sequelize'
 import { CareGrant, ClinicSetting, Patient, User } from '../models'
 import type { Language, Role } from '../../../shared/types/roles'
+import { seedDemoLabs } from './labs'
 import { seedDemoSchedules } from './schedule'
 
 /**
@@ -71,6 +72,7 @@ const STEPS: [string, SeedStep][] = [
     ], { transaction, ignoreDuplicates: true })
   }],
   ['schedule', seedDemoSchedules],
+  ['labs', seedDemoLabs],
 ]
 
 /** Runs every demo seed step that has not run yet; running it again changes nothing. */

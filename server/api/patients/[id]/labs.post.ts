@@ -1,0 +1,49 @@
+import { FIXED_UNITS } from '../../../../shared/clinical/lab-triage'
+import { respondBy } from '../../../../shared/clinical/triage'
+import { labResultSchema } from '../../../../shared/schemas/labs'
+import { LabResult } from '../../../db/models'
+
+/**
+ * Staff (nurses and clinicians) enter one lab or ECG result. A result the clinic's lab
+ * rules put at routine or above opens a triage queue item in the same transaction; urgent
+ * ones also alert the nurses on duty.
+ */
+export default defineEventHandler(async (event) => {
+  await requireRole(event, ['nurse', 'clinician'])
+  const { patient, user } = await authorizePatient(event, idParam(event), 'patient.manage')
+  const clock = await scheduleClock()
+  const input = await readValidatedBody(event, parseWith(labResultSchema(clock.today)))
+  const { settings, now } = clock
+
+  const sequelize = await useDb()
+  const view = await sequelize.transaction(async (transaction) => {
+    const created = await LabResult.create({
+      patientId: patient.id,
+      kind: input.kind,
+      takenOn: input.takenOn,
+      value: input.value,
+      unit: input.kind === 'testosterone' ? input.unit : FIXED_UNITS[input.kind],
+      heartRate: input.kind === 'qtc' ? input.heartRate : null,
+      note: input.note ?? null,
+      enteredByUserId: user.id,
+    }, { transaction })
+    const { results, context } = await labContextOf(patient.id, transaction)
+    const result = labResultView(results.find(r => r.id === created.id)!, context)
+    if (result.level !== 'none') {
+      await openTriageItem({
+        patientId: patient.id,
+        source: 'lab',
+        sourceKey: `lab:${created.id}`,
+        level: result.level,
+        reasons: result.reasons,
+        respondBy: result.level === 'urgent'
+          ? new Date(now.getTime() + settings.urgentResponseHours * 3600_000)
+          : respondBy(result.level, now, { urgentHours: settings.urgentResponseHours, routineWorkingDays: settings.routineResponseWorkingDays }, settings.timeZone),
+        at: now,
+      }, transaction)
+    }
+    return result
+  })
+  setResponseStatus(event, 201)
+  return view
+})
