@@ -33,6 +33,7 @@ export default defineNuxtConfig({
     outboxRetryBaseMs: 30_000,
     publicUrl: 'http://localhost:3000',
     seedDemo: false,
+    seedDemoActivity: false,
     allowClockOverride: false,
     session: {
       name: 'tidewell-session',

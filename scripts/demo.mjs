@@ -23,6 +23,7 @@ const server = spawn(process.execPath, ['.output/server/index.mjs'], {
   stdio: 'inherit',
   env: {
     NUXT_SEED_DEMO: 'true',
+    NUXT_SEED_DEMO_ACTIVITY: 'true',
     NUXT_PUBLIC_URL: url,
     ...process.env,
     PORT: port,

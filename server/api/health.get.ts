@@ -1,4 +1,4 @@
 export default defineEventHandler(async () => {
-  await useDb()
+  await whenSeeded()
   return { ok: true }
 })

@@ -15,7 +15,7 @@ export default defineNitroPlugin(() => {
     if (!existsSync(file)) writeFileSync(file, randomBytes(32).toString('hex'), { mode: 0o600 })
     process.env.NUXT_SESSION_PASSWORD = readFileSync(file, 'utf8').trim()
   }
-  useDb().catch((error) => {
+  whenSeeded().catch((error) => {
     console.error('[tidewell] database start-up failed', error)
   })
 })

@@ -5,9 +5,11 @@ import sqlite3 from 'sqlite3'
 import { SequelizeStorage, Umzug } from 'umzug'
 import { migrations } from '../db/migrations'
 import { initModels } from '../db/models'
+import { seedDemoActivity } from '../db/seed/activity'
 import { seedDemoClinic } from '../db/seed/demo'
 
 let ready: Promise<Sequelize> | undefined
+let seeded: Promise<Sequelize> | undefined
 
 /** Applies every pending migration; returns the names it applied. */
 export async function migrate(sequelize: Sequelize) {
@@ -58,15 +60,32 @@ async function connect(): Promise<Sequelize> {
   await sequelize.query('PRAGMA journal_mode = WAL;')
   initModels(sequelize)
   await migrate(sequelize)
-  if (config.seedDemo) await seedDemoClinic(sequelize)
   return sequelize
 }
 
-/** The one shared connection, created, migrated (and seeded for the demo) on first use. */
+/** The one shared connection, created and migrated on first use. */
 export function useDb(): Promise<Sequelize> {
   ready ??= connect().catch((error) => {
     ready = undefined
     throw error
   })
   return ready
+}
+
+/**
+ * The database once the demo clinic is seeded (when asked). Seeding runs through the same
+ * code as requests (which wait on useDb), so it starts only after useDb is ready; the
+ * start-up plugin and the readiness route wait on this.
+ */
+export function whenSeeded(): Promise<Sequelize> {
+  seeded ??= useDb().then(async (sequelize) => {
+    const config = useRuntimeConfig()
+    if (config.seedDemo) await seedDemoClinic(sequelize)
+    if (config.seedDemo && config.seedDemoActivity) await seedDemoActivity(sequelize)
+    return sequelize
+  }).catch((error) => {
+    seeded = undefined
+    throw error
+  })
+  return seeded
 }

@@ -40,7 +40,7 @@ export const DEMO_CAREGIVERS: (DemoPerson & { forPatient: string, canLogDiary: b
   { email: 'dana@demo.tidewell.test', name: 'Dana Achterberg', role: 'caregiver', forPatient: 'LPU-1002', canLogDiary: false, canManageAppointments: false },
 ]
 
-type SeedStep = (transaction: Transaction) => Promise<void>
+export type SeedStep = (transaction: Transaction) => Promise<void>
 
 const STEPS: [string, SeedStep][] = [
   ['people', async (transaction) => {
@@ -75,9 +75,9 @@ const STEPS: [string, SeedStep][] = [
   ['labs', seedDemoLabs],
 ]
 
-/** Runs every demo seed step that has not run yet; running it again changes nothing. */
-export async function seedDemoClinic(sequelize: Sequelize) {
-  for (const [name, step] of STEPS) {
+/** Runs each step that has not run on this database yet; running it again changes nothing. */
+export async function runSeedSteps(sequelize: Sequelize, steps: [string, SeedStep][]) {
+  for (const [name, step] of steps) {
     const key = `seed.${name}`
     await sequelize.transaction(async (transaction) => {
       if (await ClinicSetting.findByPk(key, { transaction })) return
@@ -85,4 +85,9 @@ export async function seedDemoClinic(sequelize: Sequelize) {
       await ClinicSetting.create({ key, value: new Date().toISOString() }, { transaction })
     })
   }
+}
+
+/** The demo clinic: people, schedules and results. */
+export function seedDemoClinic(sequelize: Sequelize) {
+  return runSeedSteps(sequelize, STEPS)
 }
