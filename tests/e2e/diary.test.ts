@@ -63,7 +63,7 @@ describe('the weekly diary', () => {
     // No IPSS in the last 28 days, so the monthly questions are open; they must be answered.
     await atStep(page, 4, 'Passing urine')
     await next(page)
-    await expect(page.getByText('Choose an answer from 0 to 5.').count()).resolves.toBe(7)
+    await expect.poll(() => page.getByText('Choose an answer from 0 to 5.').count()).toBe(7)
     const howOften = question(page, /^Over the past month, how often/)
     await expect(howOften.count()).resolves.toBe(6)
     for (const group of await howOften.all()) await group.getByRole('radio', { name: 'Not at all' }).check()
@@ -102,6 +102,17 @@ describe('the weekly diary', () => {
     await page.getByText('Entered by Franklin Osei-Mensah').waitFor()
     await page.getByRole('link', { name: 'Fill in this week\'s diary' }).waitFor()
     expect(await seriousAxeViolations(page)).toEqual([])
+    await page.close()
+  })
+
+  it('Today then shows the last entry and its level, with the way to the next one', async () => {
+    const page = await signInAs(ROUTINE_PATIENT)
+    const card = page.getByRole('region', { name: 'Weekly diary' })
+    await card.waitFor()
+    await card.getByText(/^Last diary entry: /).waitFor()
+    await expect(card.getByText('Routine', { exact: true }).count()).resolves.toBe(1)
+    await expect(card.getByText(/Your weekly diary is due/).count()).resolves.toBe(0)
+    await card.getByRole('link', { name: 'Fill in this week\'s diary' }).waitFor()
     await page.close()
   })
 
