@@ -76,7 +76,7 @@ describe('the care circle', () => {
       expect.stringContaining('See the schedule, diary and results'),
       expect.stringContaining('Log diary entries'),
     ]))
-    await expect(helper.getByText('Confirm or change appointments').count()).resolves.toBe(0)
+    await expect.poll(() => helper.getByText('Confirm or change appointments').count(), { timeout: 10_000 }).toBe(0)
     expect(await seriousAxeViolations(helper)).toEqual([])
     await expect(helper.getByLabel('Your full name').inputValue()).resolves.toBe(HELPER.name)
     await helper.getByLabel('New password', { exact: true }).fill(HELPER.password)
@@ -109,13 +109,13 @@ describe('the care circle', () => {
     // Her very next page shows no access, and the record answers "not found".
     await goTo(helper, '/today')
     await helper.getByText('You are not helping anyone right now.', { exact: false }).waitFor()
-    await expect(helper.getByText('You are helping: Howard Tillinghast').count()).resolves.toBe(0)
+    await expect.poll(() => helper.getByText('You are helping: Howard Tillinghast').count(), { timeout: 10_000 }).toBe(0)
     const patientId = (await (await Client.signIn(url('/'), PATIENT)).get('/api/_auth/session')).body.user.patientId as number
     expect((await helper.request.get(url(`/api/patients/${patientId}/diary`))).status()).toBe(404)
 
     // His access history names her: she opened and changed his record.
     await goTo(patient, '/access-history')
-    await expect(patient.getByTestId('access-history-item').filter({ hasText: HELPER.name }).count()).resolves.toBeGreaterThan(1)
+    await expect.poll(() => patient.getByTestId('access-history-item').filter({ hasText: HELPER.name }).count(), { timeout: 10_000 }).toBeGreaterThan(1)
     await patient.getByText('Logged a diary entry').first().waitFor()
     expect(await seriousAxeViolations(patient)).toEqual([])
     await helper.close()
@@ -188,8 +188,8 @@ describe('the care circle', () => {
     await page.waitForURL(u => u.searchParams.has('patient') && u.searchParams.has('actor'))
     const rows = page.getByTestId('audit-row')
     await rows.first().waitFor()
-    await expect(rows.filter({ hasText: 'Refused' }).count()).resolves.toBeGreaterThan(0)
-    await expect(rows.filter({ hasText: 'Logged a diary entry' }).count()).resolves.toBe(1)
+    await expect.poll(() => rows.filter({ hasText: 'Refused' }).count(), { timeout: 10_000 }).toBeGreaterThan(0)
+    await expect.poll(() => rows.filter({ hasText: 'Logged a diary entry' }).count(), { timeout: 10_000 }).toBe(1)
     expect(await seriousAxeViolations(page)).toEqual([])
 
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download as CSV' }).click()])

@@ -49,7 +49,7 @@ describe('the weekly diary', () => {
     await perDay.fill('lots')
     await next(page)
     await page.getByText('Enter a whole number from 0 to 50.').waitFor()
-    await expect(page.getByText(`Step 2 of ${STEPS}: Hot flushes`).count()).resolves.toBe(1)
+    await expect.poll(() => page.getByText(`Step 2 of ${STEPS}: Hot flushes`).count(), { timeout: 10_000 }).toBe(1)
     await perDay.fill('4')
     await choose(page, 'How strong was the worst one?', 'Moderate')
     // Moderate flushes that limit usual activities: CTCAE v5.0 hot flashes grade 2 -> routine.
@@ -65,7 +65,7 @@ describe('the weekly diary', () => {
     await next(page)
     await expect.poll(() => page.getByText('Choose an answer from 0 to 5.').count()).toBe(7)
     const howOften = question(page, /^Over the past month, how often/)
-    await expect(howOften.count()).resolves.toBe(6)
+    await expect.poll(() => howOften.count(), { timeout: 10_000 }).toBe(6)
     for (const group of await howOften.all()) await group.getByRole('radio', { name: 'Not at all' }).check()
     await choose(page, /how many times did you usually get up/, 'None')
     await choose(page, /rest of your life/, 'Pleased')
@@ -110,8 +110,8 @@ describe('the weekly diary', () => {
     const card = page.getByRole('region', { name: 'Weekly diary' })
     await card.waitFor()
     await card.getByText(/^Last diary entry: /).waitFor()
-    await expect(card.getByText('Routine', { exact: true }).count()).resolves.toBe(1)
-    await expect(card.getByText(/Your weekly diary is due/).count()).resolves.toBe(0)
+    await expect.poll(() => card.getByText('Routine', { exact: true }).count(), { timeout: 10_000 }).toBe(1)
+    await expect.poll(() => card.getByText(/Your weekly diary is due/).count(), { timeout: 10_000 }).toBe(0)
     await card.getByRole('link', { name: 'Fill in this week\'s diary' }).waitFor()
     await page.close()
   })
@@ -127,14 +127,14 @@ describe('the weekly diary', () => {
     await expect(alert.textContent()).resolves.toContain('Call 911 now. Do not wait for a reply from the clinic.')
     await expect(alert.textContent()).resolves.toContain('Say that you have prostate cancer and new weakness in your legs or arms.')
     // Still on the right-now check, with the instructions above the form.
-    await expect(page.getByLabel('On an average day, how many hot flushes did you have?').count()).resolves.toBe(0)
+    await expect.poll(() => page.getByLabel('On an average day, how many hot flushes did you have?').count(), { timeout: 10_000 }).toBe(0)
     const alertTop = (await alert.boundingBox())!.y
     const formTop = (await page.locator('#diary-form').boundingBox())!.y
     expect(alertTop).toBeLessThan(formTop)
 
     await page.getByRole('button', { name: 'Continue my diary' }).click()
     await atStep(page, 2, 'Hot flushes')
-    await expect(page.getByRole('alert').filter({ hasText: 'Call 911 now.' }).count()).resolves.toBe(1)
+    await expect.poll(() => page.getByRole('alert').filter({ hasText: 'Call 911 now.' }).count(), { timeout: 10_000 }).toBe(1)
     for (const [step, title] of [[2, 'Hot flushes'], [3, 'Pain'], [4, 'Passing urine']] as const) {
       await atStep(page, step, title)
       if (step === 4) await page.getByRole('button', { name: 'Leave these questions for now' }).click()
@@ -177,7 +177,7 @@ describe('the weekly diary', () => {
     await atStep(page, 3, 'Pain')
     await page.getByText('Some answers need another look. See the messages below.').waitFor()
     const worst = question(page, 'What was your worst pain this past week?')
-    await expect(worst.getByText('Choose a whole number from 0 (no pain) to 10 (worst pain you can imagine).').count()).resolves.toBe(1)
+    await expect.poll(() => worst.getByText('Choose a whole number from 0 (no pain) to 10 (worst pain you can imagine).').count(), { timeout: 10_000 }).toBe(1)
     await expect(worst.getByRole('radio', { name: '4', exact: true }).isChecked()).resolves.toBe(true)
     await page.getByRole('button', { name: 'Back to checking my answers' }).click()
     await atStep(page, 10, 'Check your answers')

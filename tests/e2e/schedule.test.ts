@@ -22,7 +22,7 @@ describe('the injection schedule in the browser', () => {
     await card.getByRole('button', { name: 'Confirm this appointment' }).click()
     await card.getByText('Thank you. The appointment is confirmed.').waitFor()
     await expect(card.getByTestId('appointment-status').textContent()).resolves.toContain('Confirmed')
-    await expect(card.getByRole('button', { name: 'Confirm this appointment' }).count()).resolves.toBe(0)
+    await expect.poll(() => card.getByRole('button', { name: 'Confirm this appointment' }).count(), { timeout: 10_000 }).toBe(0)
 
     await page.reload()
     await expect(page.getByTestId('appointment-status').textContent()).resolves.toContain('Confirmed')
@@ -43,7 +43,7 @@ describe('the injection schedule in the browser', () => {
     const form = page.locator('form[aria-labelledby="record-heading"]')
     await form.getByLabel('Lot number').fill('LQ7781T')
     await form.getByLabel('Lot expiry date').fill('2030-06-30')
-    await expect(form.getByRole('radio', { checked: true }).count()).resolves.toBe(1)
+    await expect.poll(() => form.getByRole('radio', { checked: true }).count(), { timeout: 10_000 }).toBe(1)
     await form.getByRole('button', { name: 'Record injection' }).click()
     await form.getByText('Injection recorded.').waitFor()
     await page.locator('section[aria-labelledby="schedule-heading"] [data-state="upcoming"]').waitFor()
@@ -51,8 +51,8 @@ describe('the injection schedule in the browser', () => {
 
     await page.goto(url('/staff/due'))
     await page.getByRole('heading', { level: 1, name: 'Due list' }).waitFor()
-    await expect(page.locator('[data-patient="LPU-1011"]').count()).resolves.toBe(0)
-    await expect(page.locator('section[data-group="overdue"] tbody tr').count()).resolves.toBe(overdueBefore - 1)
+    await expect.poll(() => page.locator('[data-patient="LPU-1011"]').count(), { timeout: 10_000 }).toBe(0)
+    await expect.poll(() => page.locator('section[data-group="overdue"] tbody tr').count(), { timeout: 10_000 }).toBe(overdueBefore - 1)
     await page.close()
   })
 })

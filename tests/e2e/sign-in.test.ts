@@ -14,7 +14,7 @@ describe('signing in', () => {
     const page = await signInAs('patient@demo.tidewell.test')
     expect(new URL(page.url()).pathname).toBe('/today')
     await page.getByRole('heading', { level: 1, name: 'Hello, Elias Marwood' }).waitFor()
-    await expect(page.getByText('In an emergency, call 911 now.').count()).resolves.toBe(1)
+    await expect.poll(() => page.getByText('In an emergency, call 911 now.').count(), { timeout: 10_000 }).toBe(1)
     await page.close()
   })
 

@@ -37,7 +37,7 @@ describe('the triage queue', () => {
     // Other browser tests may have filled the queue; wait until only his item is listed.
     await page.waitForFunction(number => [...document.querySelectorAll('tbody tr')].every(tr => tr.textContent?.includes(number)), CLINIC_NUMBER)
     const rows = page.locator('tbody tr')
-    await expect(rows.count()).resolves.toBe(1)
+    await expect.poll(() => rows.count(), { timeout: 10_000 }).toBe(1)
     const row = rows.first()
     await expect(row.textContent()).resolves.toContain('Blood in the urine.')
     // Urgent target: 4 hours (clinic default), so a fresh item is due in about 4 hours.
@@ -49,7 +49,7 @@ describe('the triage queue', () => {
     // A reload keeps the filter.
     await page.reload()
     await expect(page.getByLabel('Patient name or clinic number').inputValue()).resolves.toBe(CLINIC_NUMBER)
-    await expect(rows.count()).resolves.toBe(1)
+    await expect.poll(() => rows.count(), { timeout: 10_000 }).toBe(1)
 
     // While the page is open, a second entry arrives: the list updates itself in place,
     // the search box keeps the focus and the change in the counts is announced.
@@ -67,7 +67,7 @@ describe('the triage queue', () => {
     await page.getByText('Entered by the patient, Bernard Achterberg').waitFor()
     // The patient's note is text, exactly as typed, never markup.
     await expect(page.locator('[data-entry-note]').textContent()).resolves.toBe(NOTE)
-    await expect(page.locator('[data-entry-note] b').count()).resolves.toBe(0)
+    await expect.poll(() => page.locator('[data-entry-note] b').count(), { timeout: 10_000 }).toBe(0)
     await page.getByRole('heading', { name: 'Last eight diary entries' }).waitFor()
     const closeButton = page.getByRole('button', { name: 'Close item' })
     await expect(closeButton.isDisabled()).resolves.toBe(true)
