@@ -4,11 +4,14 @@ import type { ZodTypeAny, z } from 'zod'
 
 /**
  * vee-validate form from the same zod schema the server uses; error messages are locale
- * keys, translated here. Server field errors (400/409) can be shown with setServerErrors.
+ * keys, translated here. A refusal from the server goes through showFailure: its field
+ * messages at the fields (400/409), its summary in `failure` above the form.
  */
 export function useZodForm<T extends ZodTypeAny>(schema: T, initialValues?: Partial<z.input<T>>) {
   const { t, te } = useI18n()
+  const { describe } = useApiError()
   const form = useForm({ validationSchema: toTypedSchema(schema), initialValues: initialValues as never })
+  const failure = ref('')
   const errorText = (path: string) => {
     const key = (form.errors.value as Record<string, string | undefined>)[path]
     return key ? (te(key) ? t(key) : key) : undefined
@@ -16,5 +19,10 @@ export function useZodForm<T extends ZodTypeAny>(schema: T, initialValues?: Part
   function setServerErrors(fields: Record<string, string>) {
     for (const [path, message] of Object.entries(fields)) form.setFieldError(path as never, message)
   }
-  return { ...form, errorText, setServerErrors }
+  function showFailure(error: unknown) {
+    const { message, fields } = describe(error)
+    setServerErrors(fields)
+    failure.value = message
+  }
+  return { ...form, errorText, setServerErrors, failure, showFailure }
 }
