@@ -32,6 +32,10 @@ describe('the demo clinic', () => {
     // PHQ-2 total >= 3 (Kroenke 2003) -> routine.
     expect(byName['Desmond Laurier']).toMatchObject({ level: 'routine' })
     expect(byName['Cyril Hathersage']).toBeUndefined()
+    // The demo's overdue injections are in the queue too, as urgent items.
+    const overdue = queue.items.filter((i: { source: string }) => i.source === 'overdue-injection')
+    expect(overdue.length).toBeGreaterThan(0)
+    expect(overdue.every((i: { level: string }) => i.level === 'urgent')).toBe(true)
     const closed = (await nurse.get('/api/triage?status=closed')).body.items
     expect(closed.find((i: { patientName: string }) => i.patientName === 'Cyril Hathersage')).toMatchObject({ level: 'emergency', disposition: 'sent-to-emergency' })
   })

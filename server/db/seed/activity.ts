@@ -90,6 +90,8 @@ const diaryStory: SeedStep = async (transaction: Transaction) => {
   }
 }
 
-export function seedDemoActivity(sequelize: Sequelize) {
-  return runSeedSteps(sequelize, [['activity', diaryStory]])
+/** The diary story once, then what the daily overdue sweep would find today (once per cycle). */
+export async function seedDemoActivity(sequelize: Sequelize) {
+  await runSeedSteps(sequelize, [['activity', diaryStory]])
+  await openOverdueInjectionItems(new Date())
 }
