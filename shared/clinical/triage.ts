@@ -44,7 +44,7 @@ function oneStepUp(level: TriageLevel): TriageLevel {
 }
 
 /** Changes whenever a rule, a threshold or a source changes; stored with each result. */
-export const RULES_VERSION = 'tidewell-triage-1'
+export const RULES_VERSION = 'tidewell-triage-2'
 
 /** The right-now check, in the order the diary asks it. */
 export const RIGHT_NOW_ITEMS = [
@@ -83,6 +83,8 @@ const SOURCES = {
   barry: 'Barry MJ et al., J Urol 1992 (IPSS 20-35 is severe)',
   kroenke: 'Kroenke K et al., Med Care 2003 (PHQ-2 of 3 or more is a positive screen)',
   basch: 'Basch E et al., J Clin Oncol 2016 (alerts on worsening symptoms); thresholds from memory',
+  cardiac: 'GnRH-agonist depot prescribing information, Warnings (cardiovascular disease, QT prolongation); routine review: common practice',
+  urinaryInfection: 'Burning on passing urine may be a urinary infection; routine review: common practice',
 } as const
 
 export interface Baseline {
@@ -187,6 +189,10 @@ export const TRIAGE_RULES: readonly TriageRule[] = [
   rule('fatigue-grade-2', 'routine', SOURCES.ctcae, entry => fatigueGrade(entry) === 2),
   rule('injection-site-signs', 'routine', `${SOURCES.ctcae}, injection site reaction`, ({ injectionSite }) =>
     injectionSite.pain || injectionSite.redness || injectionSite.swelling || injectionSite.lump),
+  rule('heart-racing-or-irregular', 'routine', SOURCES.cardiac, ({ heart }) => heart.racingOrIrregular),
+  rule('leg-swelling', 'routine', SOURCES.cardiac, ({ heart }) => heart.legSwelling),
+  rule('breathless-light-effort', 'routine', SOURCES.cardiac, ({ heart }) => heart.breathlessLightEffort),
+  rule('burning-urine', 'routine', SOURCES.urinaryInfection, ({ urinary }) => urinary.burning),
 ]
 
 function baselineRule(id: string, symptomRules: readonly string[], test: RaiseRule['test']): RaiseRule {

@@ -204,6 +204,26 @@ const CASES: Record<string, RuleCase> = {
     fires: entryWith(e => (e.injectionSite.lump = true)),
     misses: entryWith(),
   },
+  'heart-racing-or-irregular': {
+    source: 'prescribing information Warnings (QT prolongation); common practice', level: 'routine',
+    fires: entryWith(e => (e.heart.racingOrIrregular = true)),
+    misses: entryWith(e => (e.heart.fainting = true)),
+  },
+  'leg-swelling': {
+    source: 'prescribing information Warnings (cardiovascular disease); common practice', level: 'routine',
+    fires: entryWith(e => (e.heart.legSwelling = true)),
+    misses: entryWith(e => (e.injectionSite.swelling = true)),
+  },
+  'breathless-light-effort': {
+    source: 'prescribing information Warnings (cardiovascular disease); common practice', level: 'routine',
+    fires: entryWith(e => (e.heart.breathlessLightEffort = true)),
+    misses: entryWith(rightNow('hardToBreathe')),
+  },
+  'burning-urine': {
+    source: 'common practice (possible urinary infection)', level: 'routine',
+    fires: entryWith(e => (e.urinary.burning = true)),
+    misses: entryWith(weakStream),
+  },
   'baseline-pain': {
     source: 'Basch 2016; 3 points from memory', level: 'routine',
     // Median of four entries at 2 is 2: 5 is 3 points up, 4 only 2.
