@@ -157,3 +157,14 @@ export function emptyDiaryEntry(): DiaryEntryInput {
     injectionSite: { pain: false, redness: false, swelling: false, lump: false, feverOrSpreadingRednessOrPus: false },
   }
 }
+
+type DiaryChanges = { [K in keyof DiaryEntryInput]?: DiaryEntryInput[K] extends unknown[] ? DiaryEntryInput[K] : Partial<DiaryEntryInput[K]> | DiaryEntryInput[K] }
+
+/** emptyDiaryEntry() with some sections changed (a section's other answers stay "no"). */
+export function diaryEntryWith(changes: DiaryChanges): DiaryEntryInput {
+  const entry = emptyDiaryEntry() as unknown as Record<string, unknown>
+  for (const [key, value] of Object.entries(changes)) {
+    entry[key] = value && typeof value === 'object' && !Array.isArray(value) ? { ...(entry[key] as object), ...value } : value
+  }
+  return entry as unknown as DiaryEntryInput
+}

@@ -1,6 +1,5 @@
 import type { Sequelize, Transaction } from 'sequelize'
-import type { DiaryEntryInput } from '../../../shared/schemas/diary'
-import { emptyDiaryEntry } from '../../../shared/schemas/diary'
+import { diaryEntryWith } from '../../../shared/schemas/diary'
 import type { Disposition, TriageEventType } from '../../../shared/schemas/triage'
 import { Patient, TriageEvent, User } from '../models'
 import type { TriageItem } from '../models'
@@ -14,15 +13,7 @@ import type { SeedStep } from './demo'
  */
 const DAY = 86_400_000
 
-type Changes = { [K in keyof DiaryEntryInput]?: Partial<DiaryEntryInput[K]> | DiaryEntryInput[K] }
-
-function answers(changes: Changes): DiaryEntryInput {
-  const entry = emptyDiaryEntry() as unknown as Record<string, unknown>
-  for (const [key, value] of Object.entries(changes)) {
-    entry[key] = value && typeof value === 'object' && !Array.isArray(value) ? { ...(entry[key] as object), ...value } : value
-  }
-  return entry as unknown as DiaryEntryInput
-}
+type Changes = Parameters<typeof diaryEntryWith>[0]
 
 interface StoryLine {
   clinicNumber: string
@@ -65,7 +56,7 @@ const diaryStory: SeedStep = async (transaction: Transaction) => {
     if (!patient) continue
     let lastItem: TriageItem | null = null
     for (const [daysAgo, changes] of story.entries) {
-      const { entry } = await storeDiaryEntry({ patient, enteredBy: { id: patient.userId }, answers: answers(changes), submittedAt: new Date(now - daysAgo * DAY) }, transaction)
+      const { entry } = await storeDiaryEntry({ patient, enteredBy: { id: patient.userId }, answers: diaryEntryWith(changes), submittedAt: new Date(now - daysAgo * DAY) }, transaction)
       lastItem = await openTriageItemForEntry(entry, transaction) ?? lastItem
     }
     if (!story.handledBy || !lastItem) continue
