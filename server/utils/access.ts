@@ -103,8 +103,9 @@ export interface PatientAccess {
  * answers 404 (it might as well not exist); one he may see but not change answers 403.
  * Every access by anyone but the patient himself, allowed or not, goes to the audit trail.
  */
-export async function authorizePatient(event: H3Event, patientId: number, action: PatientAction): Promise<PatientAccess> {
-  const user = await requireActiveUser(event)
+export async function authorizePatient(event: H3Event, patientId: number, action: PatientAction, signedIn?: SessionUser): Promise<PatientAccess> {
+  // A handler that already checked the role passes the user it got, so he is read once.
+  const user = signedIn ?? await requireActiveUser(event)
   const id = Number.isSafeInteger(patientId) && patientId > 0 ? patientId : 0
   const patient = id ? await Patient.findByPk(id) : null
   const { relation, grant } = patient ? await relationTo(user, id) : { relation: { kind: 'none' } as Relation, grant: null }

@@ -194,7 +194,7 @@ describe('the table covers every patient route', () => {
   // A patient route is any route file that asks the access policy about one patient.
   const onDisk = files(apiDir).flatMap((file) => {
     const source = readFileSync(file, 'utf8')
-    const action = source.match(/authorize(?:Patient|Appointment)\((?:[^()]|\([^()]*\))*'([a-z.-]+)'\)/)?.[1]
+    const action = source.match(/authorize(?:Patient|Appointment)\((?:[^()]|\([^()]*\))*'([a-z.-]+)'(?:, \w+)?\)/)?.[1]
     const match = relative(apiDir, file).match(/^(.*?)\.(get|post|put|patch|delete)\.ts$/)
     if (!action || !match) return []
     const path = `/api/${match[1]}`.replace(/\/index$/, '').replace(/\[(\w+)\]/g, ':$1')

@@ -7,10 +7,10 @@ import { TriageEvent, TriageItem } from '../../../db/models'
  * action lands in the item's timeline and, through the access policy, the audit trail.
  */
 export default defineEventHandler(async (event) => {
-  await requireRole(event, ['nurse', 'clinician'])
+  const staff = await requireRole(event, ['nurse', 'clinician'])
   const found = await TriageItem.findByPk(idParam(event) || 0)
   if (!found) throw createError({ statusCode: 404, message: 'errors.notFound' })
-  const { user } = await authorizePatient(event, found.patientId, 'triage.work')
+  const { user } = await authorizePatient(event, found.patientId, 'triage.work', staff)
   const action = await readValidatedBody(event, parseWith(triageActionSchema))
   const sequelize = await useDb()
   const now = new Date()
