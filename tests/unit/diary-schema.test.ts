@@ -34,7 +34,7 @@ const fullEntry: DiaryEntryInput = {
     tinglingOrNumbness: false,
   },
   urinary: { weakStreamOrStraining: true, blood: false, burning: false, ipss: { items: [1, 2, 0, 1, 3, 0, 2], qualityOfLife: 3 } },
-  sugar: { veryThirsty: true, urinatingMore: false, blurredVision: false, glucose: { value: 8.4, unit: 'mmol/L' } },
+  sugar: { veryThirsty: true, urinatingMore: false, blurredVision: false, lowSugarSigns: false, neededHelpForLowSugar: false, glucose: { value: 8.4, unit: 'mmol/L' } },
   mood: { phq2Interest: 1, phq2Down: 2 },
   fatigue: 'eased-by-rest',
   note: 'Slept badly on Tuesday. <b>not bold</b>',
