@@ -56,8 +56,8 @@ export interface LabContext {
 const byDate = (a: LabReading, b: LabReading) => a.takenOn.localeCompare(b.takenOn) || a.id - b.id
 
 /**
- * The interpretation of one result. PSA: the doubling time over his PSA values up to this
- * one. QTc: the rise is measured from his first QTc before this one (his baseline).
+ * The interpretation of one result. PSA: the doubling time over his PSA values since their
+ * nadir, up to this one. QTc: the rise is measured from his first QTc before this one (his baseline).
  */
 export function interpretLab(reading: LabReading, context: LabContext): LabInterpretation {
   switch (reading.kind) {
@@ -68,12 +68,8 @@ export function interpretLab(reading: LabReading, context: LabContext): LabInter
     }
     case 'psa': {
       const upToThis = [...context.history.filter(r => r.kind === 'psa' && r.id !== reading.id && byDate(r, reading) < 0), reading].sort(byDate)
-      return {
-        kind: 'psa',
-        ngPerMl: reading.value,
-        valuesUsed: upToThis.length,
-        doubling: psaDoublingTimeFromResults(upToThis.map(r => ({ date: r.takenOn, psa: r.value }))),
-      }
+      const doubling = psaDoublingTimeFromResults(upToThis.map(r => ({ date: r.takenOn, psa: r.value })))
+      return { kind: 'psa', ngPerMl: reading.value, valuesUsed: doubling.valuesUsed, doubling }
     }
     case 'hba1c':
       return {

@@ -98,21 +98,53 @@ export interface PsaResult {
 /** Average days in a month (365.25 / 12), to show a doubling time in months. */
 export const DAYS_PER_MONTH = 365.25 / 12
 
-export type DatedPsaDoublingTime =
-  | { status: 'too-few-values' }
-  | { status: 'not-rising' }
-  | { status: 'rising', days: number, months: number }
+/** Values for a doubling time on therapy are at least this many days apart (Arlen 2008, 4 weeks; from memory). */
+export const PSA_MIN_SPACING_DAYS = 28
 
-/** PSA doubling time from dated results ('YYYY-MM-DD'), in days and in months. */
+export type DatedPsaDoublingTime =
+  | { status: 'too-few-values', valuesUsed: number }
+  | { status: 'not-rising', valuesUsed: number }
+  | { status: 'rising', days: number, months: number, valuesUsed: number }
+
+/**
+ * The values a doubling time on therapy is fitted over. Scher HI et al. (PCWG3), J Clin
+ * Oncol 2016;34:1402-1418: on therapy the rise is measured from the nadir, so the fit uses
+ * the values after the lowest one (the latest, when the lowest comes twice), never the fall
+ * before it. Of values closer than four weeks to the one kept before, only the first is
+ * kept (Arlen PM et al., J Urol 2008: values at least 4 weeks apart; from memory).
+ */
+export function psaValuesSinceNadir(results: readonly PsaResult[]): PsaResult[] {
+  const sorted = [...results].sort((a, b) => a.date.localeCompare(b.date))
+  let nadir = -1
+  sorted.forEach((result, index) => {
+    if (nadir < 0 || result.psa <= sorted[nadir]!.psa) nadir = index
+  })
+  const kept: PsaResult[] = []
+  for (const result of sorted.slice(nadir + 1)) {
+    const last = kept.at(-1)
+    if (last === undefined || daysBetween(last.date, result.date) >= PSA_MIN_SPACING_DAYS) kept.push(result)
+  }
+  return kept
+}
+
+/**
+ * PSA doubling time on therapy from dated results ('YYYY-MM-DD'), in days and in months:
+ * the log-linear fit (Pound 1999) over the values since the nadir (psaValuesSinceNadir),
+ * with at least three of them; fewer gives "too few values", never a number. A series whose
+ * latest value is its lowest is "not rising".
+ */
 export function psaDoublingTimeFromResults(results: readonly PsaResult[]): DatedPsaDoublingTime {
-  const first = results[0]
-  if (first === undefined) return { status: 'too-few-values' }
-  const fit = psaDoublingTime(results.map(result => ({
+  const used = psaValuesSinceNadir(results)
+  if (results.length >= PSA_MIN_VALUES && used.length === 0) return { status: 'not-rising', valuesUsed: 0 }
+  const first = used[0]
+  if (first === undefined || used.length < PSA_MIN_VALUES) return { status: 'too-few-values', valuesUsed: used.length }
+  const fit = psaDoublingTime(used.map(result => ({
     time: daysBetween(first.date, result.date),
     psa: result.psa,
   })))
-  if (fit.status !== 'rising') return { status: fit.status }
-  return { status: 'rising', days: fit.doublingTime, months: fit.doublingTime / DAYS_PER_MONTH }
+  if (fit.status === 'too-few-values') return { status: 'too-few-values', valuesUsed: used.length }
+  if (fit.status === 'not-rising') return { status: 'not-rising', valuesUsed: used.length }
+  return { status: 'rising', days: fit.doublingTime, months: fit.doublingTime / DAYS_PER_MONTH, valuesUsed: used.length }
 }
 
 /*

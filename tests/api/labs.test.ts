@@ -128,9 +128,9 @@ describe('reading results', () => {
     const nmol = results.find(r => r.kind === 'testosterone' && r.unit === 'nmol/L')!
     expect(nmol.interpretation).toMatchObject({ castrate: true, belowStrictLevel: true })
     expect(nmol.interpretation.ngPerDl as number).toBeCloseTo(0.55 / 0.03467, 6)
-    // His PSA falls: "not rising", never a number.
+    // His PSA falls and the latest is the lowest (no value since the nadir): "not rising", never a number.
     const latestPsa = results.find(r => r.kind === 'psa')!
-    expect(latestPsa.interpretation).toMatchObject({ valuesUsed: 4, doubling: { status: 'not-rising' } })
+    expect(latestPsa.interpretation).toMatchObject({ valuesUsed: 0, doubling: { status: 'not-rising' } })
     // QT 398 ms at 68 bpm: Fridericia 398 / cbrt(60/68) = 415 ms, grade 0.
     const qtc = results.find(r => r.kind === 'qtc')!
     expect(Math.round(qtc.interpretation.fridericia as number)).toBe(Math.round(398 / Math.cbrt(60 / 68)))

@@ -112,13 +112,12 @@ describe('HbA1c (ADA Standards of Care 2025: 6.5 % or more is the diabetes range
 describe('PSA doubling time under 3 months (Pound 1999 log-linear; threshold common practice, from memory) -> routine', () => {
   // Doubling every d days: ln 2 / slope = d exactly. Three months = 3 x 365.25 / 12 = 91.31 days.
   const series = (everyDays: number) => {
-    const dates = ['2025-01-01', '', '']
+    // A nadir of 0.5, then three values doubling every `everyDays` (the fit starts after the nadir, PCWG3).
     const start = Date.UTC(2025, 0, 1)
-    dates[1] = new Date(start + everyDays * 86_400_000).toISOString().slice(0, 10)
-    dates[2] = new Date(start + 2 * everyDays * 86_400_000).toISOString().slice(0, 10)
-    return [reading('psa', 1, dates[0]), reading('psa', 2, dates[1]), reading('psa', 4, dates[2])]
+    const day = (n: number) => new Date(start + n * 86_400_000).toISOString().slice(0, 10)
+    return [reading('psa', 0.5, day(0)), reading('psa', 1, day(everyDays)), reading('psa', 2, day(2 * everyDays)), reading('psa', 4, day(3 * everyDays))]
   }
-  const lastOf = (values: LabReading[]) => triage(values[2]!, { ...onTherapy, history: values.slice(0, 2) })
+  const lastOf = (values: LabReading[]) => triage(values[3]!, { ...onTherapy, history: values.slice(0, 3) })
 
   it('doubling every 91 days (2.99 months) fires; every 92 days (3.02 months) just misses', () => {
     expect(91 / (365.25 / 12)).toBeLessThan(3)
@@ -130,13 +129,13 @@ describe('PSA doubling time under 3 months (Pound 1999 log-linear; threshold com
     expect(lastOf(series(92)).level).toBe('none')
   })
 
-  it('REFERENCES check: day 0 1.0, 90 1.5, 180 2.1, 270 3.2 -> about 163 days, over his values up to this one', () => {
-    const values = [reading('psa', 1.0, '2025-01-01'), reading('psa', 1.5, '2025-04-01'), reading('psa', 2.1, '2025-06-30'), reading('psa', 3.2, '2025-09-28')]
-    const result = interpretLab(values[3]!, { ...onTherapy, history: values })
-    expect(result).toMatchObject({ kind: 'psa', valuesUsed: 4, doubling: { status: 'rising' } })
-    if (result.kind === 'psa' && result.doubling.status === 'rising') expect(Math.round(result.doubling.days)).toBe(163)
-    // The second value sees only two: too few.
-    expect(interpretLab(values[1]!, { ...onTherapy, history: values })).toMatchObject({ valuesUsed: 2, doubling: { status: 'too-few-values' } })
+  it('REFERENCES check (PCWG3): nadir 0.3, then 0.6, 1.2, 2.4 every 90 days -> 90 days, over his values since the nadir up to this one', () => {
+    const values = [reading('psa', 4.0, '2024-10-03'), reading('psa', 0.3, '2025-01-01'), reading('psa', 0.6, '2025-04-01'), reading('psa', 1.2, '2025-06-30'), reading('psa', 2.4, '2025-09-28')]
+    const result = interpretLab(values[4]!, { ...onTherapy, history: values })
+    expect(result).toMatchObject({ kind: 'psa', valuesUsed: 3, doubling: { status: 'rising' } })
+    if (result.kind === 'psa' && result.doubling.status === 'rising') expect(result.doubling.days).toBeCloseTo(90, 6)
+    // The 1.2 result sees only two values since the nadir: too few, never a number.
+    expect(interpretLab(values[3]!, { ...onTherapy, history: values })).toMatchObject({ valuesUsed: 2, doubling: { status: 'too-few-values' } })
   })
 
   it('a falling PSA is "not rising" and raises nothing; fewer than 3 values neither', () => {

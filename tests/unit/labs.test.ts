@@ -13,6 +13,7 @@ import {
   glucoseToMgDl,
   psaDoublingTime,
   psaDoublingTimeFromResults,
+  psaValuesSinceNadir,
   qtcBazett,
   qtcFridericia,
   qtcGrade,
@@ -94,23 +95,102 @@ describe('PSA doubling time (Pound CR et al., JAMA 1999 log-linear; Arlen PM et 
     expect(() => psaDoublingTime([{ time: 0, psa: 0 }, { time: 1, psa: 1 }, { time: 2, psa: 2 }])).toThrow(RangeError)
   })
 
-  it('works from dated results, in days and months', () => {
-    // 2025-01-01, +90 days, +180 days; PSA doubles every 90 days.
+  it('works from dated results, in days and months, from the nadir on', () => {
+    // Lowest value first, then PSA doubles every 90 days: the fit uses the values after the
+    // lowest (PCWG3, Scher 2016), 2025-04-01 4, 2025-06-30 8, 2025-09-28 16 (90-day steps).
     const result = psaDoublingTimeFromResults([
       { date: '2025-01-01', psa: 2 },
       { date: '2025-04-01', psa: 4 },
       { date: '2025-06-30', psa: 8 },
+      { date: '2025-09-28', psa: 16 },
     ])
-    expect(result.status).toBe('rising')
+    expect(result).toMatchObject({ status: 'rising', valuesUsed: 3 })
     if (result.status !== 'rising') return
     expect(result.days).toBeCloseTo(90, 9)
     expect(result.months).toBeCloseTo(90 / DAYS_PER_MONTH, 9)
-    expect(psaDoublingTimeFromResults([])).toEqual({ status: 'too-few-values' })
+    expect(psaDoublingTimeFromResults([])).toEqual({ status: 'too-few-values', valuesUsed: 0 })
+  })
+
+  it('is "not rising" when the latest value is the lowest', () => {
     expect(psaDoublingTimeFromResults([
       { date: '2025-01-01', psa: 3 },
       { date: '2025-04-01', psa: 2 },
       { date: '2025-06-30', psa: 1 },
-    ])).toEqual({ status: 'not-rising' })
+    ])).toEqual({ status: 'not-rising', valuesUsed: 0 })
+  })
+})
+
+describe('PSA doubling time on therapy from the nadir (Scher HI et al., PCWG3, J Clin Oncol 2016; Arlen PM et al., J Urol 2008: 3 values, 4 weeks apart, from memory)', () => {
+  it('REFERENCES check: nadir 0.3, then 0.6, 1.2, 2.4 ng/mL every 90 days -> 90 days over (0.6, 1.2, 2.4)', () => {
+    const result = psaDoublingTimeFromResults([
+      { date: '2024-01-01', psa: 6.0 },
+      { date: '2024-04-01', psa: 0.3 },
+      { date: '2024-06-30', psa: 0.6 },
+      { date: '2024-09-28', psa: 1.2 },
+      { date: '2024-12-27', psa: 2.4 },
+    ])
+    // Three values, each double the one before, 90 days apart: ln2 / (ln2 / 90) = 90 days.
+    expect(result).toMatchObject({ status: 'rising', valuesUsed: 3 })
+    if (result.status === 'rising') expect(result.days).toBeCloseTo(90, 9)
+  })
+
+  it('a PSA rising from its nadir on therapy reads rising, although the fit over every value would fall', () => {
+    const results = [
+      { date: '2024-01-01', psa: 40 },
+      { date: '2024-03-01', psa: 12 },
+      { date: '2024-05-01', psa: 2 },
+      { date: '2024-07-01', psa: 0.5 },
+      { date: '2024-09-01', psa: 0.9 },
+      { date: '2024-11-01', psa: 1.6 },
+      { date: '2025-01-01', psa: 2.9 },
+    ]
+    // The whole series falls overall (a fit over all seven has a negative slope)...
+    const all = psaDoublingTime(results.map(r => ({ time: Date.parse(r.date) / 86_400_000, psa: r.psa })))
+    expect(all.status).toBe('not-rising')
+    // ...but since the nadir of 0.5 it nearly doubles every two months.
+    const since = psaDoublingTimeFromResults(results)
+    expect(since.status).toBe('rising')
+    if (since.status === 'rising') {
+      expect(since.valuesUsed).toBe(3)
+      expect(since.days).toBeGreaterThan(60)
+      expect(since.days).toBeLessThan(80)
+    }
+  })
+
+  it('three values on consecutive days give "too few values", not a doubling time of a week', () => {
+    expect(psaDoublingTimeFromResults([
+      { date: '2025-03-01', psa: 0.2 },
+      { date: '2025-03-02', psa: 1.0 },
+      { date: '2025-03-03', psa: 1.1 },
+      { date: '2025-03-04', psa: 1.2 },
+    ])).toEqual({ status: 'too-few-values', valuesUsed: 1 })
+  })
+
+  it('values under four weeks after the one kept before are left out (27 days out, 28 days in)', () => {
+    const since = psaValuesSinceNadir([
+      { date: '2025-01-01', psa: 0.1 },
+      { date: '2025-02-01', psa: 0.2 },
+      { date: '2025-02-28', psa: 0.3 },
+      { date: '2025-03-01', psa: 0.4 },
+    ])
+    expect(since.map(r => r.date)).toEqual(['2025-02-01', '2025-03-01'])
+  })
+
+  it('two values after the nadir are not enough', () => {
+    expect(psaDoublingTimeFromResults([
+      { date: '2025-01-01', psa: 0.3 },
+      { date: '2025-04-01', psa: 0.6 },
+      { date: '2025-07-01', psa: 1.2 },
+    ])).toEqual({ status: 'too-few-values', valuesUsed: 2 })
+  })
+
+  it('takes the later of two equal lowest values as the nadir', () => {
+    expect(psaValuesSinceNadir([
+      { date: '2025-01-01', psa: 0.3 },
+      { date: '2025-03-01', psa: 0.5 },
+      { date: '2025-05-01', psa: 0.3 },
+      { date: '2025-07-01', psa: 0.6 },
+    ]).map(r => r.date)).toEqual(['2025-07-01'])
   })
 })
 
