@@ -1,5 +1,6 @@
 import { DateTime } from 'luxon'
 import type { DiaryEntryInput } from '../schemas/diary'
+import type { RiskFactor, RiskProfile } from './risk-profile'
 import { glucoseToMgDl } from './labs'
 import { gradeFatigue, gradeHotFlashes, gradeInjectionSite, ipss, phq2 } from './scores'
 import type { CtcaeGrade } from './scores'
@@ -44,7 +45,7 @@ function oneStepUp(level: TriageLevel): TriageLevel {
 }
 
 /** Changes whenever a rule, a threshold or a source changes; stored with each result. */
-export const RULES_VERSION = 'tidewell-triage-2'
+export const RULES_VERSION = 'tidewell-triage-3'
 
 /** The right-now check, in the order the diary asks it. */
 export const RIGHT_NOW_ITEMS = [
@@ -84,6 +85,7 @@ const SOURCES = {
   kroenke: 'Kroenke K et al., Med Care 2003 (PHQ-2 of 3 or more is a positive screen)',
   basch: 'Basch E et al., J Clin Oncol 2016 (alerts on worsening symptoms); thresholds from memory',
   cardiac: 'GnRH-agonist depot prescribing information, Warnings (cardiovascular disease, QT prolongation); routine review: common practice',
+  note: 'Common practice: every free-text note is read by a person (Tidewell issue 9)',
   urinaryInfection: 'Burning on passing urine may be a urinary infection; routine review: common practice',
 } as const
 
@@ -101,6 +103,8 @@ export interface RuleContext {
   flareWatchActive: boolean
   /** Medians of his last four entries; null when there are none. */
   baseline: Baseline | null
+  /** The risk profile on his record; absent means no factor is known. */
+  riskProfile?: RiskProfile
 }
 
 interface RuleCommon {
@@ -117,8 +121,13 @@ export interface TriageRule extends RuleCommon {
   level: TriageLevel
 }
 
+/** What raised a symptom one step: his own last report, the flare watch, or a risk factor on his record. */
+export type RaisedBy = 'baseline' | 'flare-watch' | 'risk'
+
 export interface RaiseRule extends RuleCommon {
-  raisedBy: 'baseline' | 'flare-watch'
+  raisedBy: RaisedBy
+  /** The risk factor behind a 'risk' raise. */
+  riskFactor?: RiskFactor
   /** Ids of the fixed rules about the same symptom; the raise starts from the highest that fired. */
   symptomRules: readonly string[]
   /** The raised level is never lower than this. */
@@ -184,7 +193,7 @@ export const TRIAGE_RULES: readonly TriageRule[] = [
   rule('phq2-positive', 'routine', SOURCES.kroenke, ({ mood }) =>
     phq2(mood.phq2Interest, mood.phq2Down).positive),
   rule('high-sugar-symptoms', 'routine', SOURCES.ada, ({ sugar }) =>
-    sugar.glucose === undefined && (sugar.veryThirsty || sugar.urinatingMore || sugar.blurredVision)),
+    (sugar.veryThirsty || sugar.urinatingMore || sugar.blurredVision)),
   rule('hot-flushes-grade-2', 'routine', SOURCES.ctcae, entry => hotFlushGrade(entry) === 2),
   rule('fatigue-grade-2', 'routine', SOURCES.ctcae, entry => fatigueGrade(entry) === 2),
   rule('injection-site-signs', 'routine', `${SOURCES.ctcae}, injection site reaction`, ({ injectionSite }) =>
@@ -193,6 +202,8 @@ export const TRIAGE_RULES: readonly TriageRule[] = [
   rule('leg-swelling', 'routine', SOURCES.cardiac, ({ heart }) => heart.legSwelling),
   rule('breathless-light-effort', 'routine', SOURCES.cardiac, ({ heart }) => heart.breathlessLightEffort),
   rule('burning-urine', 'routine', SOURCES.urinaryInfection, ({ urinary }) => urinary.burning),
+  // Every note is read by a person: a note alone opens a routine "note to read" item.
+  rule('note-to-read', 'routine', SOURCES.note, entry => (entry.note ?? '').trim().length > 0),
 ]
 
 function baselineRule(id: string, symptomRules: readonly string[], test: RaiseRule['test']): RaiseRule {
@@ -286,6 +297,8 @@ export interface TriageContext {
   /** The clinic's time zone, for counting working days. Defaults to UTC. */
   timeZone?: string
   targets?: TriageTargets
+  /** The risk profile on his record (nurses and clinicians set it); absent means none known. */
+  riskProfile?: RiskProfile
 }
 
 export interface TriageReason {
@@ -294,7 +307,9 @@ export interface TriageReason {
   reasonKey: string
   instructionKey: string
   source: string
-  raisedBy?: 'baseline' | 'flare-watch'
+  raisedBy?: RaisedBy
+  /** The risk factor behind a 'risk' raise. */
+  riskFactor?: RiskFactor
 }
 
 export interface TriageResult {
@@ -365,6 +380,7 @@ export function evaluateTriage(entry: DiaryEntryInput, context: TriageContext): 
   const ruleContext: RuleContext = {
     flareWatchActive: context.flareWatchActive,
     baseline: baselineOf(context.baseline),
+    riskProfile: context.riskProfile,
   }
 
   const reasons = TRIAGE_RULES

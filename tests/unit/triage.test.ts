@@ -187,7 +187,8 @@ const CASES: Record<string, RuleCase> = {
   'high-sugar-symptoms': {
     source: 'ADA 2025; common practice', level: 'routine',
     fires: entryWith(e => (e.sugar.veryThirsty = true)),
-    misses: entryWith(e => (e.sugar.veryThirsty = true), glucose(180, 'mg/dL')),
+    // A reading never lowers what the symptoms give (issue 9): no symptom, no rule.
+    misses: entryWith(glucose(180, 'mg/dL')),
   },
   'hot-flushes-grade-2': {
     source: 'CTCAE v5.0', level: 'routine',
@@ -223,6 +224,11 @@ const CASES: Record<string, RuleCase> = {
     source: 'common practice (possible urinary infection)', level: 'routine',
     fires: entryWith(e => (e.urinary.burning = true)),
     misses: entryWith(weakStream),
+  },
+  'note-to-read': {
+    source: 'common practice: every note is read by a person (issue 9)', level: 'routine',
+    fires: entryWith(e => (e.note = 'My legs gave way on the stairs last night')),
+    misses: entryWith(e => (e.note = '  \n ')),
   },
   'baseline-pain': {
     source: 'Basch 2016; 3 points from memory', level: 'routine',
@@ -497,9 +503,10 @@ describe('the free-text note', () => {
     expect(result.noteFlagged).toBe(true)
   })
 
-  it('alone is flagged but does not set a level', () => {
+  it('alone is flagged and opens a routine "note to read" reason (issue 9)', () => {
     const result = triage(entryWith(e => (e.note = 'Could I move my appointment?')))
-    expect(result.level).toBe('none')
+    expect(result.level).toBe('routine')
+    expect(result.reasons.map(r => [r.rule, r.level])).toEqual([['note-to-read', 'routine']])
     expect(result.noteFlagged).toBe(true)
   })
 
@@ -586,6 +593,7 @@ describe('locale strings for triage', () => {
       ...LEVELS.map(levelInstructionKey),
       'triage.raisedBy.baseline',
       'triage.raisedBy.flare-watch',
+      'triage.raisedBy.risk',
     ]
     for (const key of keys) {
       expect(typeof lookup(en, key), `en ${key}`).toBe('string')
