@@ -1,4 +1,5 @@
 import { Op } from 'sequelize'
+import { riskProfileOf } from '../../shared/clinical/risk-profile'
 import { daysBetween } from '../../shared/clinical/schedule'
 import type { TriageDetailView, TriageRowView } from '../../shared/types/triage'
 import { DiaryEntry, Patient, TriageEvent, TriageItem, User } from '../db/models'
@@ -38,6 +39,7 @@ export async function triageDetail(item: TriageItem, now: Date): Promise<TriageD
   const entry = item.diaryEntryId
     ? await DiaryEntry.findByPk(item.diaryEntryId, { include: [{ model: User, as: 'enteredBy', attributes: ['id', 'name', 'role'] }] })
     : null
+  const caregivers = await caregiverContacts(item.patientId)
   const trend = await DiaryEntry.findAll({
     where: { patientId: item.patientId },
     order: [['submittedAt', 'DESC'], ['id', 'DESC']],
@@ -59,7 +61,11 @@ export async function triageDetail(item: TriageItem, now: Date): Promise<TriageD
       at: e.at.toISOString(),
       actor: e.actor ? { id: e.actor.id, name: e.actor.name, role: e.actor.role } : null,
     })),
-    entry: entry ? diaryView(entry, enteredByOf(entry.enteredBy!, patient)) : null,
+    entry: entry ? diaryView(entry, enteredByOf(entry.enteredBy!, patient), item) : null,
+    noteRead: events.some(e => e.type === 'note-read'),
+    riskProfile: riskProfileOf(patient.riskProfile),
+    contact: contactOf(patient),
+    caregivers,
     context: {
       dateOfBirth: patient.dateOfBirth,
       flareWatch,

@@ -13,6 +13,8 @@ export type Disposition = (typeof DISPOSITIONS)[number]
 export const TRIAGE_EVENT_TYPES = [
   'created', 'claimed', 'note', 'call-attempted', 'call-reached', 'message-sent',
   'waiting', 'escalated', 'disposition-set', 'closed',
+  // The entry's note was read; a right-now report added items; the rest of the diary arrived.
+  'note-read', 'right-now-added', 'diary-completed',
 ] as const
 export type TriageEventType = (typeof TRIAGE_EVENT_TYPES)[number]
 
@@ -29,6 +31,7 @@ export const triageActionSchema = z.discriminatedUnion('type', [
   z.object({ type: z.literal('escalate'), note }).strict(),
   z.object({ type: z.literal('disposition'), disposition: z.enum(DISPOSITIONS, { errorMap: () => ({ message: 'validation.triage.disposition' }) }), note: optionalNote }).strict(),
   z.object({ type: z.literal('close'), note: optionalNote }).strict(),
+  z.object({ type: z.literal('note-read') }).strict(),
 ], { errorMap: () => ({ message: 'validation.triage.actionType' }) })
 export type TriageAction = z.infer<typeof triageActionSchema>
 

@@ -13,15 +13,19 @@ export interface DiaryEntryView {
   id: number
   patientId: number
   submittedAt: string
+  /** False while only a right-now report has arrived (the rest of the diary may follow). */
+  complete: boolean
   level: TriageLevel
   reasons: TriageReason[]
   respondBy: string | null
   noteFlagged: boolean
   flareWatchActive: boolean
+  /** The triage rules version that worked out this level. */
+  rulesVersion: string
   hotFlushScore: number
   worstPain: number
   answers: DiaryEntryInput
   enteredBy: EnteredBy
   /** The care team's review when the entry opened a triage queue item. */
-  review?: { status: TriageItemStatus, disposition: Disposition | null } | null
+  review?: { status: TriageItemStatus, disposition: Disposition | null, closedAt: string | null } | null
 }

@@ -2,6 +2,8 @@ import type { TriageLevel, TriageReason } from '../clinical/triage'
 import type { ScheduleState, SiteCode } from '../clinical/schedule'
 import type { Disposition, TriageEventType, TriageItemStatus, TriageSource } from '../schemas/triage'
 import type { Role } from './roles'
+import type { RiskProfile } from '../clinical/risk-profile'
+import type { CaregiverContactView, PatientContactView } from './contact'
 import type { DiaryEntryView } from './diary'
 
 /** One row of the triage queue as GET /api/triage returns it (staff only). */
@@ -53,5 +55,11 @@ export interface TriageContextView {
 export interface TriageDetailView extends TriageRowView {
   events: TriageEventView[]
   entry: DiaryEntryView | null
+  /** The entry's note has been marked read by someone on the care team. */
+  noteRead: boolean
+  riskProfile: RiskProfile
+  /** How to reach him: his phones (tel: links on the page), best times, preference. */
+  contact: PatientContactView
+  caregivers: CaregiverContactView[]
   context: TriageContextView
 }

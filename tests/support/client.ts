@@ -50,6 +50,10 @@ export class Client {
     return this.request('POST', path, body)
   }
 
+  put(path: string, body: unknown) {
+    return this.request('PUT', path, body)
+  }
+
   patch(path: string, body: unknown) {
     return this.request('PATCH', path, body)
   }

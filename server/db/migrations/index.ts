@@ -4,6 +4,7 @@ import * as diary from './0003-diary'
 import * as triageQueue from './0004-triage-queue'
 import * as circle from './0005-circle'
 import * as labs from './0006-labs'
+import * as safety from './0007-safety'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -16,4 +17,5 @@ export const migrations = [
   { name: '0004-triage-queue', ...triageQueue },
   { name: '0005-circle', ...circle },
   { name: '0006-labs', ...labs },
+  { name: '0007-safety', ...safety },
 ]

@@ -20,6 +20,10 @@ export class DiaryEntry extends Model<InferAttributes<DiaryEntry>, InferCreation
   declare hotFlushScore: number
   declare worstPain: number
   declare submittedAt: Date
+  /** The id the diary page gave its draft: joins a right-now report and the rest of the diary. */
+  declare draftId: string | null
+  /** False while only a right-now report has arrived; the rest of the diary completes it. */
+  declare complete: CreationOptional<boolean>
   declare enteredBy?: NonAttribute<User>
 
   static initModel(sequelize: Sequelize) {
@@ -35,6 +39,13 @@ export class DiaryEntry extends Model<InferAttributes<DiaryEntry>, InferCreation
       hotFlushScore: { type: DataTypes.INTEGER, allowNull: false, field: 'hot_flush_score' },
       worstPain: { type: DataTypes.INTEGER, allowNull: false, field: 'worst_pain' },
       submittedAt: { type: DataTypes.DATE, allowNull: false, field: 'submitted_at' },
-    }, { sequelize, tableName: 'diary_entries', timestamps: false })
+      draftId: { type: DataTypes.STRING, allowNull: true, field: 'draft_id' },
+      complete: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+    }, {
+      sequelize,
+      tableName: 'diary_entries',
+      timestamps: false,
+      indexes: [{ name: 'diary_entries_patient_draft', unique: true, fields: ['patient_id', 'draft_id'] }],
+    })
   }
 }

@@ -1,5 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
+import type { ContactPreference, PatientPhone } from '../../../shared/schemas/contact'
 import type { User } from './user'
 
 export class Patient extends Model<InferAttributes<Patient>, InferCreationAttributes<Patient>> {
@@ -7,6 +8,11 @@ export class Patient extends Model<InferAttributes<Patient>, InferCreationAttrib
   declare userId: ForeignKey<User['id']>
   declare clinicNumber: string
   declare dateOfBirth: string
+  /** Set by nurses and clinicians; read it through riskProfileOf() (null or older = all false). */
+  declare riskProfile: CreationOptional<Record<string, boolean> | null>
+  declare phones: CreationOptional<PatientPhone[]>
+  declare bestTimesToCall: CreationOptional<string>
+  declare preferredContact: CreationOptional<ContactPreference>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
   declare user?: NonAttribute<User>
@@ -16,6 +22,10 @@ export class Patient extends Model<InferAttributes<Patient>, InferCreationAttrib
       id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
       clinicNumber: { type: DataTypes.STRING, allowNull: false, unique: true, field: 'clinic_number' },
       dateOfBirth: { type: DataTypes.DATEONLY, allowNull: false, field: 'date_of_birth' },
+      riskProfile: { type: DataTypes.JSON, allowNull: true, field: 'risk_profile' },
+      phones: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },
+      bestTimesToCall: { type: DataTypes.STRING(200), allowNull: false, defaultValue: '', field: 'best_times_to_call' },
+      preferredContact: { type: DataTypes.STRING, allowNull: false, defaultValue: 'phone', field: 'preferred_contact' },
       createdAt: { type: DataTypes.DATE, field: 'created_at' },
       updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
     }, { sequelize, tableName: 'patients' })

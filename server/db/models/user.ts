@@ -10,6 +10,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare name: string
   declare language: Language
   declare active: CreationOptional<boolean>
+  /** His own phone (a caregiver's number the nurse can call); patients keep theirs on the patient record. */
+  declare phone: CreationOptional<string | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 
@@ -22,6 +24,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
       name: { type: DataTypes.STRING, allowNull: false },
       language: { type: DataTypes.STRING, allowNull: false, defaultValue: 'en' },
       active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+      phone: { type: DataTypes.STRING, allowNull: true },
       createdAt: { type: DataTypes.DATE, field: 'created_at' },
       updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
     }, { sequelize, tableName: 'users' })

@@ -14,7 +14,7 @@ export default defineEventHandler(async (event) => {
     where: { patientId: patient.id },
     include: [
       { model: User, as: 'enteredBy', attributes: ['id', 'name', 'role'] },
-      { model: TriageItem, as: 'triageItem', attributes: ['status', 'disposition'] },
+      { model: TriageItem, as: 'triageItem', attributes: ['status', 'disposition', 'closedAt'] },
     ],
     distinct: true,
     order: [['submittedAt', 'DESC'], ['id', 'DESC']],
@@ -27,7 +27,7 @@ export default defineEventHandler(async (event) => {
     total: count,
     entries: rows.map((entry) => {
       const item = (entry as DiaryEntry & { triageItem?: TriageItem | null }).triageItem
-      return { ...diaryView(entry, enteredByOf(entry.enteredBy!, patient)), review: item ? { status: item.status, disposition: item.disposition } : null }
+      return diaryView(entry, enteredByOf(entry.enteredBy!, patient), item ?? null)
     }),
   }
 })

@@ -1,19 +1,16 @@
-import { diaryEntrySchema } from '../../../../shared/schemas/diary'
+import { diarySubmissionSchema } from '../../../../shared/schemas/diary'
 
 /**
  * A weekly diary entry, from the patient or a caregiver allowed to log. The server works
- * out the triage (the authority) and stores it with the entry; urgent and emergency
- * entries also open a triage queue item in the same transaction.
+ * out the triage (the authority) and stores it with the entry; routine and higher entries
+ * open a triage queue item in the same transaction. With the draft id of an entry a
+ * right-now report opened, the answers complete that entry and its item (200); with the
+ * draft id of a complete entry, that entry comes back unchanged (200); otherwise 201.
  */
 export default defineEventHandler(async (event) => {
   const { user, patient } = await authorizePatient(event, idParam(event), 'diary.write')
-  const answers = await readValidatedBody(event, parseWith(diaryEntrySchema))
-  const sequelize = await useDb()
-  const view = await sequelize.transaction(async (transaction) => {
-    const { entry } = await storeDiaryEntry({ patient, enteredBy: user, answers, submittedAt: new Date() }, transaction)
-    await openTriageItemForEntry(entry, transaction)
-    return diaryView(entry, enteredByOf(user, patient))
-  })
-  setResponseStatus(event, 201)
-  return view
+  const submission = await readValidatedBody(event, parseWith(diarySubmissionSchema))
+  const { entry, created } = await inDraftTransaction(transaction => submitDiary({ patient, enteredBy: user, submission, at: new Date() }, transaction))
+  setResponseStatus(event, created ? 201 : 200)
+  return diaryEntryReply(entry.id, patient)
 })

@@ -1,6 +1,6 @@
 import { triageActionSchema } from '../../../../shared/schemas/triage'
 import type { TriageEventType } from '../../../../shared/schemas/triage'
-import { TriageEvent, TriageItem } from '../../../db/models'
+import { DiaryEntry, TriageEvent, TriageItem } from '../../../db/models'
 
 /**
  * Records what a nurse or clinician did on an item (one body shape per action). Every
@@ -18,7 +18,7 @@ export default defineEventHandler(async (event) => {
   await sequelize.transaction(async (transaction) => {
     const item = await TriageItem.findByPk(found.id, { transaction })
     if (!item) throw createError({ statusCode: 404, message: 'errors.notFound' })
-    if (item.status === 'closed' && action.type !== 'note') throw createError({ statusCode: 409, message: 'errors.triageClosed' })
+    if (item.status === 'closed' && action.type !== 'note' && action.type !== 'note-read') throw createError({ statusCode: 409, message: 'errors.triageClosed' })
     const log = (type: TriageEventType, data: Record<string, unknown> = {}) =>
       TriageEvent.create({ itemId: item.id, actorUserId: user.id, type, note: 'note' in action ? action.note ?? null : null, data, at: now }, { transaction })
     const startWork = item.status === 'new' || item.status === 'waiting' ? { status: 'in-progress' as const } : {}
@@ -53,6 +53,13 @@ export default defineEventHandler(async (event) => {
         await item.update({ disposition: action.disposition, ...startWork }, { transaction })
         await log('disposition-set', { disposition: action.disposition })
         break
+      case 'note-read': {
+        // Every note is read by a person: the timeline says who read it and when.
+        const entry = item.diaryEntryId ? await DiaryEntry.findByPk(item.diaryEntryId, { attributes: ['id', 'noteFlagged'], transaction }) : null
+        if (!entry?.noteFlagged) throw createError({ statusCode: 409, message: 'errors.noNoteToRead' })
+        await log('note-read')
+        break
+      }
       case 'close':
         if (!item.disposition) throw createError({ statusCode: 400, message: 'errors.dispositionRequired', data: { fieldErrors: { disposition: ['validation.triage.disposition'] } } })
         await item.update({ status: 'closed', closedAt: now }, { transaction })
