@@ -3,6 +3,8 @@
  * the source gives no numbers for what we compute, the comment says the mapping is ours.
  */
 
+import type { ConstipationLevel } from '../schemas/diary'
+
 export type CtcaeGrade = 0 | 1 | 2 | 3
 
 export const HOT_FLUSH_SEVERITIES = ['none', 'mild', 'moderate', 'severe', 'very-severe'] as const
@@ -179,4 +181,37 @@ export function gradeInjectionSite(site: {
   if (site.pain || site.swelling) return 2
   if (site.redness || site.lump) return 1
   return 0
+}
+
+/**
+ * Diarrhoea, CTCAE v5.0: 1 an increase of fewer than 4 stools a day over baseline; 2 an
+ * increase of 4-6; 3 an increase of 7 or more (or limiting self-care). The diary asks the
+ * increase over his usual directly.
+ */
+export function gradeDiarrhoea(extraStoolsPerDay: number): CtcaeGrade {
+  requireInteger(extraStoolsPerDay, 'Extra stools a day', 0, 30)
+  if (extraStoolsPerDay === 0) return 0
+  if (extraStoolsPerDay < 4) return 1
+  if (extraStoolsPerDay < 7) return 2
+  return 3
+}
+
+/**
+ * Constipation, CTCAE v5.0: 1 occasional, eased by diet or softeners; 2 persistent, with
+ * regular laxatives, limiting instrumental ADL; 3 obstipation needing manual evacuation.
+ * The diary's last choice ("no movement despite laxatives") is placed at grade 3 (our design).
+ */
+export function gradeConstipation(level: ConstipationLevel): CtcaeGrade {
+  const grades: Record<ConstipationLevel, CtcaeGrade> = {
+    'none': 0,
+    'occasional': 1,
+    'persistent': 2,
+    'no-movement-despite-laxatives': 3,
+  }
+  return grades[level]
+}
+
+/** A thermometer reading in degrees Celsius: °C = (°F - 32) x 5 / 9 (the definition of the scales). */
+export function temperatureCelsius(reading: { unit: '°C' | '°F', value: number }): number {
+  return reading.unit === '°C' ? reading.value : (reading.value - 32) * 5 / 9
 }
