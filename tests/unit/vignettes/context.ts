@@ -158,6 +158,14 @@ export const RISK_VIGNETTES: Vignette[] = [
     minimum: 'routine',
     source: 'ADA Standards of Care 2025 s6: hypoglycaemia symptoms in a treated diabetic',
   },
+  {
+    id: 'RSK-12',
+    story: '79, 3-month depot, known heart disease, heart racing and irregular since Thursday',
+    entry: { heart: { racingOrIrregular: true } },
+    risk: { heartDisease: true },
+    minimum: 'urgent',
+    source: 'GnRH-agonist PI Warnings: cardiovascular; common practice: new palpitations in known heart disease (atrial fibrillation), same-day ECG',
+  },
 ]
 
 export const WORSENING_VIGNETTES: Vignette[] = [
@@ -200,5 +208,14 @@ export const WORSENING_VIGNETTES: Vignette[] = [
     baseline: [{}],
     minimum: 'routine',
     source: 'CTCAE v5.0 diarrhoea grade 0 to 2; Basch 2016/PRO-TECT worsening (from memory)',
+  },
+  {
+    id: 'WRS-06',
+    story: '74, 3-month depot, hip pain 5/10; last week 3/10, the weeks before 5/10 (worse than his last report)',
+    entry: { pain: { worst: 5, locations: ['hips'] } },
+    baseline: [{ pain: { worst: 3, locations: ['hips'] } }, { pain: { worst: 5, locations: ['hips'] } }, { pain: { worst: 5, locations: ['hips'] } }],
+    minimum: 'routine',
+    source: 'Basch 2016/PRO-TECT alert rule: worse by 2 or more points since the LAST report (REFERENCES.md, from memory)',
+    why: 'the trials compare with the last report, not an average; an average of earlier weeks would hide this rise',
   },
 ]

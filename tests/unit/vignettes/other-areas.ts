@@ -271,4 +271,18 @@ export const OTHER_VIGNETTES: Vignette[] = [
     minimum: 'routine',
     source: 'issue 9: a note is read by a person, whatever the quiet history',
   },
+  {
+    id: 'FALL-06',
+    story: '81, 6-month depot, answered no to the falls question, but "cannot bear weight" stayed yes',
+    entry: { falls: { any: false, cannotBearWeight: true } },
+    minimum: 'urgent',
+    source: 'GnRH-agonist PI: bone density loss (fracture); the schema says triage reads the details whatever the screening answer',
+  },
+  {
+    id: 'HEAD-05',
+    story: '70, 6-month depot for three years (no flare), sudden severe headache and lost vision in one eye',
+    entry: { headache: { any: true, suddenSevere: true, visionOrVomiting: true } },
+    minimum: 'emergency',
+    source: 'common practice: thunderclap headache with visual loss (haemorrhage, stroke, apoplexy), emergency care',
+  },
 ]

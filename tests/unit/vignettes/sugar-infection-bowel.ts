@@ -162,6 +162,13 @@ export const SUGAR_VIGNETTES: Vignette[] = [
     minimum: 'routine',
     source: 'GnRH-agonist PI Warnings: hyperglycaemia; common practice: new blurred vision is reviewed',
   },
+  {
+    id: 'SUG-21',
+    story: '73, 3-month depot, no symptoms, meter 22.2 mmol/L (400 mg/dL) after dinner',
+    entry: { sugar: { glucose: { unit: 'mmol/L', value: 22.2 } } },
+    minimum: 'routine',
+    source: 'ADA Standards of Care 2025: random glucose >= 200 mg/dL (22.2 x 18.016 = 400 mg/dL); GnRH-agonist PI Warnings: hyperglycaemia',
+  },
 ]
 
 export const INFECTION_VIGNETTES: Vignette[] = [
@@ -264,6 +271,14 @@ export const INFECTION_VIGNETTES: Vignette[] = [
     entry: { infection: { any: true, temperature: { unit: '°C', value: 38.6 } }, mind: { any: true, confusedOrHardToWake: true } },
     minimum: 'urgent',
     source: 'REFERENCES.md Fever: fever with new confusion needs same-day advice (common practice); NICE NG51 sepsis would call new confusion high risk (from memory)',
+  },
+  {
+    id: 'INF-14',
+    story: '68, 3-month depot plus docetaxel, answered no to the fever question but entered 38.6 °C',
+    entry: { infection: { any: false, temperature: { unit: '°C', value: 38.6 } } },
+    risk: { chemotherapy: true },
+    minimum: 'emergency',
+    source: 'NICE CG151 neutropenic sepsis: 38 °C or more during chemotherapy; the schema says triage reads the details whatever the screening answer',
   },
 ]
 
@@ -372,5 +387,12 @@ export const BOWEL_VIGNETTES: Vignette[] = [
     risk: { chemotherapy: true },
     minimum: 'urgent',
     source: 'common practice: vomiting during chemotherapy is assessed the same day (dehydration, missed medicines)',
+  },
+  {
+    id: 'BOW-14',
+    story: '75, 3-month depot, answered no to the bowel question, but "blood or black stool" stayed yes from an earlier draft',
+    entry: { bowel: { any: false, bloodOrBlackStool: true } },
+    minimum: 'urgent',
+    source: 'common practice: melaena or rectal bleeding same day; the schema says triage reads the details whatever the screening answer',
   },
 ]
