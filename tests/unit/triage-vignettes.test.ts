@@ -173,6 +173,38 @@ describe('vignettes: the suite itself', () => {
     expect(VIGNETTES.some(v => (v.baseline?.length ?? 0) > 0)).toBe(true)
   })
 
+  it('states numbers in the stories that match the answers (re-derived here)', () => {
+    const checked = { ipss: 0, glucose: 0, temperature: 0, pain: 0 }
+    for (const v of VIGNETTES) {
+      const entry = parsed(v.entry, v.id)
+      // IPSS total (Barry 1992): the sum of the seven items, quality of life not added.
+      const ipss = /IPSS (?:exactly )?(\d+)/.exec(v.story)
+      if (ipss && entry.urinary.ipss) {
+        expect(entry.urinary.ipss.items.reduce((sum, item) => sum + item, 0), `${v.id} IPSS total`).toBe(Number(ipss[1]))
+        checked.ipss++
+      }
+      // Glucose: mg/dL = mmol/L x 18.016 (REFERENCES.md, low blood sugar).
+      const glucose = /([\d.]+) mmol\/L \((\d+) mg\/dL\)/.exec(v.story)
+      if (glucose) {
+        expect(Math.abs(Number(glucose[1]) * 18.016 - Number(glucose[2])), `${v.id} glucose conversion`).toBeLessThan(1)
+        checked.glucose++
+      }
+      // Temperature: °C = (°F - 32) / 1.8.
+      const temperature = /([\d.]+) °F \(([\d.]+) °C\)/.exec(v.story)
+      if (temperature) {
+        expect((Number(temperature[1]) - 32) / 1.8, `${v.id} temperature conversion`).toBeCloseTo(Number(temperature[2]), 1)
+        checked.temperature++
+      }
+      // The pain score named first in the story is the entry's worst pain.
+      const pain = /pain (\d+)\/10/.exec(v.story)
+      if (pain) {
+        expect(entry.pain.worst, `${v.id} pain score`).toBe(Number(pain[1]))
+        checked.pain++
+      }
+    }
+    for (const [kind, count] of Object.entries(checked)) expect(count, `no story states a ${kind} number`).toBeGreaterThan(0)
+  })
+
   it('reaches every level above none as a floor', () => {
     for (const level of ['routine', 'urgent', 'emergency'] as const) {
       expect(VIGNETTES.some(v => v.minimum === level), `no vignette with floor ${level}`).toBe(true)
