@@ -301,8 +301,8 @@ export const TRIAGE_RULES: readonly TriageRule[] = [
   rule('rash-spreading', 'urgent', SOURCES.spreadingRash, ({ allergy }) => allergy.spreading),
   rule('confused-or-hard-to-wake', 'urgent', SOURCES.confusion, ({ mind }) => mind.confusedOrHardToWake),
   rule('headache-sudden-severe', 'urgent', SOURCES.suddenHeadache, ({ headache }) => headache.suddenSevere),
-  rule('hot-flushes-grade-3', 'urgent', SOURCES.ctcae, entry => hotFlushGrade(entry) === 3),
-  rule('fatigue-grade-3', 'urgent', SOURCES.ctcae, entry => fatigueGrade(entry) === 3),
+  rule('hot-flushes-grade-3', 'urgent', SOURCES.ctcae, entry => hotFlushGrade(entry) >= 3),
+  rule('fatigue-grade-3', 'urgent', SOURCES.ctcae, entry => fatigueGrade(entry) >= 3),
 
   // Routine: a nurse is in touch within a few working days.
   rule('severe-pain', 'routine', SOURCES.serlinSevere, ({ pain }) => pain.worst >= 7),
@@ -333,8 +333,8 @@ export const TRIAGE_RULES: readonly TriageRule[] = [
   rule('rash-after-injection', 'routine', SOURCES.hypersensitivity, ({ allergy }) => allergy.any),
   rule('mind-changes', 'routine', SOURCES.memory, ({ mind }) => mind.any || mind.memoryOrConcentration),
   rule('headache-new', 'routine', SOURCES.headache, ({ headache }) => headache.any),
-  rule('hot-flushes-grade-2', 'routine', SOURCES.ctcae, entry => hotFlushGrade(entry) === 2),
-  rule('fatigue-grade-2', 'routine', SOURCES.ctcae, entry => fatigueGrade(entry) === 2),
+  rule('hot-flushes-grade-2', 'routine', SOURCES.ctcae, entry => hotFlushGrade(entry) >= 2),
+  rule('fatigue-grade-2', 'routine', SOURCES.ctcae, entry => fatigueGrade(entry) >= 2),
   rule('injection-site-signs', 'routine', `${SOURCES.ctcae}, injection site reaction`, ({ injectionSite }) =>
     injectionSite.pain || injectionSite.redness || injectionSite.swelling || injectionSite.lump),
   rule('heart-racing-or-irregular', 'routine', SOURCES.cardiac, ({ heart }) => heart.racingOrIrregular),
