@@ -20,6 +20,8 @@ export const PATIENT_ACTIONS = [
   'circle.manage', // invite, change or remove caregivers
   'access-history.read', // the patient's own view of the audit trail
   'triage.work', // work a triage queue item: claim, call, note, disposition, close
+  'risk-profile.manage', // read and set the risk profile that raises triage
+  'contact.manage', // set his phones, best times to call and preferred contact
 ] as const
 export type PatientAction = (typeof PATIENT_ACTIONS)[number]
 
@@ -36,13 +38,13 @@ export type Relation =
   | { kind: 'none' }
 
 const STAFF_ALLOWED: Record<'nurse' | 'clinician' | 'admin', readonly PatientAction[]> = {
-  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read', 'circle.manage', 'triage.work'],
-  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read', 'triage.work'],
-  admin: ['patient.read', 'appointment.schedule', 'patient.manage', 'circle.read', 'circle.manage'],
+  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read', 'circle.manage', 'triage.work', 'risk-profile.manage', 'contact.manage'],
+  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read', 'triage.work', 'risk-profile.manage', 'contact.manage'],
+  admin: ['patient.read', 'appointment.schedule', 'patient.manage', 'circle.read', 'circle.manage', 'contact.manage'],
 }
 
 const SELF_ALLOWED: readonly PatientAction[] = [
-  'patient.read', 'diary.write', 'appointment.respond', 'circle.read', 'circle.manage', 'access-history.read',
+  'patient.read', 'diary.write', 'appointment.respond', 'circle.read', 'circle.manage', 'access-history.read', 'contact.manage',
 ]
 
 export function can(role: Role, relation: Relation, action: PatientAction): boolean {

@@ -25,12 +25,15 @@ describe('the demo clinic', () => {
   it('puts work in the triage queue, triaged by the real engine', async () => {
     const nurse = await Client.signIn(app.url, 'nurse@demo.tidewell.test')
     const queue = (await nurse.get('/api/triage')).body
-    const byName = Object.fromEntries(queue.items.filter((i: { source: string }) => i.source === 'diary').map((i: { patientName: string }) => [i.patientName, i]))
+    // The queue lists the highest level first; a patient's first row is his most pressing item.
+    const byName = Object.fromEntries(queue.items.filter((i: { source: string }) => i.source === 'diary').reverse().map((i: { patientName: string }) => [i.patientName, i]))
     // NICE NG234: back pain that wakes him and is worse on straining -> urgent.
     expect(byName['Odell Pruitt']).toMatchObject({ level: 'urgent', status: 'new' })
     expect(byName['Ramón Espinal Tovar']).toMatchObject({ level: 'urgent', status: 'in-progress', assignee: { name: 'Nora Lindqvist' } })
-    // PHQ-2 total >= 3 (Kroenke 2003) -> routine.
-    expect(byName['Desmond Laurier']).toMatchObject({ level: 'routine' })
+    // PHQ-2 total >= 3 (Kroenke 2003) -> routine, one step higher for a total up from 2 to 4
+    // since his last report (Basch 2016, worsening of 2 points; rules version 3) -> urgent.
+    expect(byName['Desmond Laurier']).toMatchObject({ level: 'urgent' })
+    expect(byName['Desmond Laurier'].reasons.map((r: { rule: string }) => r.rule)).toContain('phq2-positive')
     expect(byName['Cyril Hathersage']).toBeUndefined()
     // The demo's overdue injections are in the queue too, as urgent items.
     const overdue = queue.items.filter((i: { source: string }) => i.source === 'overdue-injection')
@@ -38,6 +41,20 @@ describe('the demo clinic', () => {
     expect(overdue.every((i: { level: string }) => i.level === 'urgent')).toBe(true)
     const closed = (await nurse.get('/api/triage?status=closed')).body.items
     expect(closed.find((i: { patientName: string }) => i.patientName === 'Cyril Hathersage')).toMatchObject({ level: 'emergency', disposition: 'sent-to-emergency' })
+  })
+
+  it('gives every patient and caregiver a phone in the fictional 555-0100 to 555-0199 range, and three patients a risk profile', async () => {
+    const patients = await sql<{ phones: string, best_times_to_call: string, risk_profile: string | null }>(app.dbPath, 'SELECT phones, best_times_to_call, risk_profile FROM patients')
+    expect(patients).toHaveLength(12)
+    for (const patient of patients) {
+      const phones = JSON.parse(patient.phones) as { number: string }[]
+      expect(phones.length).toBeGreaterThan(0)
+      for (const phone of phones) expect(phone.number).toMatch(/^\(\d{3}\) 555-01\d{2}$/)
+      expect(patient.best_times_to_call).not.toBe('')
+    }
+    expect(patients.filter(p => p.risk_profile && Object.values(JSON.parse(p.risk_profile)).includes(true))).toHaveLength(3)
+    const caregivers = await sql<{ phone: string | null }>(app.dbPath, `SELECT phone FROM users WHERE role = 'caregiver'`)
+    for (const caregiver of caregivers) expect(caregiver.phone).toMatch(/^\(\d{3}\) 555-01\d{2}$/)
   })
 
   it('seeding again on the same database changes nothing', async () => {

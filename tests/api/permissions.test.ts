@@ -38,6 +38,8 @@ const EXPECTED: Record<string, Record<Actor, Answer>> = {
   'circle.manage': /*               */ row('ok', 404, 404, 403, 403, 403, 404, 'ok', 403, 'ok'),
   'access-history.read': /*         */ row('ok', 404, 404, 403, 403, 403, 404, 403, 403, 403),
   'triage.work': /*                 */ row(403, 404, 404, 403, 403, 403, 404, 'ok', 'ok', 403),
+  'risk-profile.manage': /*         */ row(403, 404, 404, 403, 403, 403, 404, 'ok', 'ok', 403),
+  'contact.manage': /*              */ row('ok', 404, 404, 403, 403, 403, 404, 'ok', 'ok', 'ok'),
 }
 
 interface RouteOptions {
@@ -58,6 +60,11 @@ const ROUTES: Route[] = [
   ['GET', '/api/patients/:id/diary', 'patient.read'],
   ['GET', '/api/patients/:id/diary/:entryId', 'patient.read'],
   ['POST', '/api/patients/:id/diary', 'diary.write'],
+  ['POST', '/api/patients/:id/diary/right-now', 'diary.write'],
+  ['GET', '/api/patients/:id/risk-profile', 'risk-profile.manage'],
+  ['PUT', '/api/patients/:id/risk-profile', 'risk-profile.manage'],
+  ['GET', '/api/patients/:id/contact', 'patient.read'],
+  ['PUT', '/api/patients/:id/contact', 'contact.manage'],
   ['GET', '/api/patients/:id/slots', 'appointment.schedule'],
   ['POST', '/api/patients/:id/appointments', 'appointment.schedule'],
   ['POST', '/api/patients/:id/injections', 'injection.record'],

@@ -1,5 +1,8 @@
 import type { Sequelize, Transaction } from 'sequelize'
 import { CareGrant, ClinicSetting, Patient, User } from '../models'
+import type { RiskFactor } from '../../../shared/clinical/risk-profile'
+import { riskProfileOf } from '../../../shared/clinical/risk-profile'
+import type { ContactPreference, PatientPhone } from '../../../shared/schemas/contact'
 import type { Language, Role } from '../../../shared/types/roles'
 import { seedDemoLabs } from './labs'
 import { seedDemoSchedules } from './schedule'
@@ -40,6 +43,30 @@ export const DEMO_CAREGIVERS: (DemoPerson & { forPatient: string, canLogDiary: b
   { email: 'dana@demo.tidewell.test', name: 'Dana Achterberg', role: 'caregiver', forPatient: 'LPU-1002', canLogDiary: false, canManageAppointments: false },
 ]
 
+/*
+ * How the nurses reach each demo patient, all in the fictional 555-0100 to 555-0199 range
+ * kept for films and examples; and a risk profile on three of them (the others: none known).
+ */
+export const DEMO_CONTACTS: Record<string, { phones: PatientPhone[], bestTimes: string, preferred: ContactPreference, risks?: RiskFactor[] }> = {
+  'LPU-1001': { phones: [{ label: 'mobile', number: '(312) 555-0142' }, { label: 'home', number: '(312) 555-0143' }], bestTimes: 'Weekday mornings before 11', preferred: 'phone' },
+  'LPU-1002': { phones: [{ label: 'home', number: '(414) 555-0118' }], bestTimes: 'Afternoons; his daughter Dana answers when he is resting', preferred: 'caregiver', risks: ['spinalMetastases'] },
+  'LPU-1003': { phones: [{ label: 'mobile', number: '(505) 555-0127' }], bestTimes: 'Por la tarde, después de las 3', preferred: 'phone', risks: ['diabetes'] },
+  'LPU-1004': { phones: [{ label: 'mobile', number: '(803) 555-0164' }], bestTimes: 'Any time', preferred: 'phone' },
+  'LPU-1005': { phones: [{ label: 'mobile', number: '(617) 555-0171' }, { label: 'work', number: '(617) 555-0172' }], bestTimes: 'Lunchtime or after 6 pm', preferred: 'phone' },
+  'LPU-1006': { phones: [{ label: 'mobile', number: '(206) 555-0109' }], bestTimes: 'Evenings', preferred: 'email' },
+  'LPU-1007': { phones: [{ label: 'home', number: '(915) 555-0135' }], bestTimes: 'Mañanas', preferred: 'phone' },
+  'LPU-1008': { phones: [{ label: 'home', number: '(802) 555-0150' }], bestTimes: 'Late morning; he is hard of hearing, let it ring', preferred: 'phone' },
+  'LPU-1009': { phones: [{ label: 'mobile', number: '(503) 555-0186' }], bestTimes: 'Weekdays after 4 pm', preferred: 'phone' },
+  'LPU-1010': { phones: [{ label: 'mobile', number: '(210) 555-0193' }], bestTimes: 'Mañanas entre semana', preferred: 'phone', risks: ['heartDisease', 'longQt'] },
+  'LPU-1011': { phones: [{ label: 'home', number: '(207) 555-0114' }], bestTimes: 'Mornings', preferred: 'phone' },
+  'LPU-1012': { phones: [{ label: 'mobile', number: '(305) 555-0158' }], bestTimes: 'Cualquier hora', preferred: 'phone' },
+}
+
+export const DEMO_CAREGIVER_PHONES: Record<string, string> = {
+  'caregiver@demo.tidewell.test': '(312) 555-0144',
+  'dana@demo.tidewell.test': '(414) 555-0119',
+}
+
 export type SeedStep = (transaction: Transaction) => Promise<void>
 
 const STEPS: [string, SeedStep][] = [
@@ -73,6 +100,20 @@ const STEPS: [string, SeedStep][] = [
   }],
   ['schedule', seedDemoSchedules],
   ['labs', seedDemoLabs],
+  ['contacts', async (transaction) => {
+    for (const [clinicNumber, contact] of Object.entries(DEMO_CONTACTS)) {
+      const risks = Object.fromEntries((contact.risks ?? []).map(factor => [factor, true]))
+      await Patient.update({
+        phones: contact.phones,
+        bestTimesToCall: contact.bestTimes,
+        preferredContact: contact.preferred,
+        riskProfile: contact.risks ? riskProfileOf(risks) : null,
+      }, { where: { clinicNumber }, transaction })
+    }
+    for (const [email, phone] of Object.entries(DEMO_CAREGIVER_PHONES)) {
+      await User.update({ phone }, { where: { email }, transaction })
+    }
+  }],
 ]
 
 /** Runs each step that has not run on this database yet; running it again changes nothing. */
