@@ -84,6 +84,9 @@ export type PainLocation = (typeof PAIN_LOCATIONS)[number]
 /** Pain felt in the spine (NICE NG234: cervical, thoracic or lumbar spine pain). */
 const SPINE_LOCATIONS: readonly PainLocation[] = ['back', 'neck']
 
+/** Worse by this much since the last report raises the symptom one step (pain NRS points, PHQ-2 points or CTCAE grades; Basch, from memory). */
+export const WORSENING_POINTS = 2
+
 /** The right-now items that are neurological signs of spinal cord compression (NICE NG234). */
 const NEUROLOGICAL_RIGHT_NOW: readonly RightNowItem[] = ['newWeakness', 'newNumbness', 'troubleWalking', 'bladderBowelControl']
 
@@ -114,11 +117,10 @@ const SOURCES = {
   heartTogether: 'ESC heart failure guidelines 2021 (breathlessness, ankle swelling and palpitations together are typical of heart failure or an arrhythmia): from memory; same-day call: common practice',
   syncope: 'ESC syncope guidelines 2018 (fainting with palpitations, breathlessness or signs of heart failure is high risk, sent to emergency care): from memory',
   dvt: 'One painful swollen leg may be a deep vein thrombosis: same-day assessment, common practice (from memory)',
-  pe: 'A painful swollen leg with breathlessness may be a pulmonary embolism: emergency, common practice (from memory)',
   urinaryInfection: 'Burning on passing urine may be a urinary infection; routine review: common practice',
   note: 'Common practice: every free-text note is read by a person (Tidewell issue 9)',
   niceFever: 'NICE CG151 (2012), Neutropenic sepsis: a fever of 38 °C or more, or feeling unwell, during chemotherapy is an emergency (from memory for the wording)',
-  feverSameDay: 'A fever with shaking chills, new confusion or burning urine needs same-day advice: common practice (REFERENCES.md, fever during cancer treatment)',
+  feverSameDay: 'A fever with shaking chills, new confusion or burning urine needs same-day advice: common practice (REFERENCES.md, fever during cancer treatment); with diarrhoea or vomiting (infective, dehydration): common practice',
   fever: 'CTCAE v5.0 fever grade 1 from 38.0 °C; without chemotherapy a routine review: common practice',
   lowTemperature: 'A temperature below 36 °C can be a sign of sepsis (NICE NG51, from memory); routine review: common practice',
   infection: 'Fever, chills or feeling unwell reported without a raised reading: routine review, common practice',
@@ -136,7 +138,20 @@ const SOURCES = {
   confusion: 'New confusion or unusual drowsiness (delirium: infection, high calcium, low sugar, the brain): same day, common practice',
   memory: 'Memory or concentration changes during androgen deprivation (prescribing information, adverse reactions; from memory): routine review, common practice',
   headache: 'A new or unusual headache: routine review, common practice',
-  suddenHeadache: 'A sudden severe headache: same-day call, common practice; pituitary apoplexy is in the GnRH-agonist prescribing information (from memory)',
+  suddenHeadache: 'A sudden, very bad headache, the worst he has had (thunderclap): emergency care, common practice (NICE CKS headache red flags, from memory); pituitary apoplexy is in the GnRH-agonist prescribing information (from memory)',
+  progressiveSpine: 'NICE guideline NG234 (2023): progressive spinal pain needs review within 24 hours; worse by 2 or more since the last report (Basch, from memory)',
+  painTingling: 'NICE guideline NG234 (2023): radicular pain with sensory change; pain with tingling anywhere may come from a nerve root, same day: common practice',
+  barryChange: 'Barry MJ et al., J Urol 1995: a rise of about 3 IPSS points is a change men notice (from memory); routine review: common practice',
+  lungClot: 'One painful swollen leg with breathlessness or a racing heart may be a pulmonary embolism (Wells criteria, NICE NG158, from memory): emergency, common practice',
+  adaHighAlone: 'ADA Standards of Care 2025, section 2: a glucose of 200 mg/dL (11.1 mmol/L) or more suggests diabetes, to be confirmed; GnRH-agonist prescribing information, Warnings (hyperglycaemia)',
+  highFever: 'CTCAE v5.0 fever grade 2 or more (above 39.0 °C); same-day call: common practice',
+  dehydration: 'Diarrhoea with vomiting (dehydration and kidney injury in an older man): same day, common practice',
+  obstruction: 'No bowel movement despite laxatives with vomiting may be a bowel obstruction: emergency care, common practice',
+  bleedCollapse: 'Blood or black stool with fainting (bleeding with collapse): emergency care, common practice',
+  headInjury: 'A hit head or injury with new confusion after a fall: emergency care (NICE NG232 head injury, from memory); common practice',
+  anaphylaxis: 'A rash or hives with fainting (skin signs with collapse meet anaphylaxis criteria, WAO 2020, from memory); GnRH-agonist prescribing information (hypersensitivity)',
+  lowSugarConfusion: 'ADA Standards of Care 2025, section 6: low sugar with altered mental state is level 3, emergency; common practice',
+  highSugarConfusion: 'Very high glucose with confusion may be a hyperglycaemic crisis (ADA hyperglycaemic crises consensus, from memory): emergency, common practice',
   apoplexy: 'GnRH-agonist depot prescribing information, Warnings and post-marketing: pituitary apoplexy (sudden headache, vomiting, change in sight), from memory; emergency: common practice',
 } as const
 
@@ -150,6 +165,10 @@ export interface Baseline {
   injectionSite: number
   diarrhoea: number
   constipation: number
+  /** PHQ-2 total (0-6) in his last report. */
+  mood: number
+  /** IPSS total (0-35) of his last report that had one (monthly); null when none had. */
+  ipss: number | null
 }
 
 /** What a rule's test can see besides the entry. */
@@ -268,10 +287,23 @@ export const TRIAGE_RULES: readonly TriageRule[] = [
     && (entry.pain.tinglingOrNumbness || NEUROLOGICAL_RIGHT_NOW.some(item => entry.rightNow[item]))),
   rule('fever-during-chemotherapy', 'emergency', SOURCES.niceFever, (entry, { riskProfile }) =>
     riskProfile?.chemotherapy === true && (fever(entry) || entry.infection.feelsUnwell || entry.infection.shakingChills)),
+  rule('black-stool-with-fainting', 'emergency', SOURCES.bleedCollapse, ({ bowel, heart }) =>
+    bowel.bloodOrBlackStool && heart.fainting),
+  rule('constipation-with-vomiting', 'emergency', SOURCES.obstruction, entry =>
+    constipationGrade(entry) >= 3 && entry.bowel.vomiting),
+  rule('head-injury-with-confusion', 'emergency', SOURCES.headInjury, entry =>
+    entry.falls.hitHeadOrHurt && newConfusion(entry)),
+  rule('rash-with-fainting', 'emergency', SOURCES.anaphylaxis, ({ allergy, heart }) =>
+    (allergy.any || allergy.spreading) && heart.fainting),
+  rule('low-sugar-with-confusion', 'emergency', SOURCES.lowSugarConfusion, entry =>
+    glucoseBelow(entry, 70) && newConfusion(entry)),
+  rule('high-sugar-with-confusion', 'emergency', SOURCES.highSugarConfusion, entry =>
+    glucoseAtLeast(entry, 300) && newConfusion(entry)),
+  rule('headache-sudden-severe', 'emergency', SOURCES.suddenHeadache, ({ headache }) => headache.suddenSevere),
   rule('fainting-with-heart-signs', 'emergency', SOURCES.syncope, ({ heart }) =>
     heart.fainting && (heart.racingOrIrregular || heart.breathlessLightEffort || heart.legSwelling)),
-  rule('leg-clot-with-breathlessness', 'emergency', SOURCES.pe, ({ heart }) =>
-    heart.oneLegPainfulSwollen && heart.breathlessLightEffort),
+  rule('possible-lung-clot', 'emergency', SOURCES.lungClot, ({ heart }) =>
+    heart.oneLegPainfulSwollen && (heart.breathlessLightEffort || heart.racingOrIrregular)),
   rule('headache-vision-or-vomiting', 'emergency', SOURCES.apoplexy, ({ headache, bowel }) =>
     headache.visionOrVomiting || ((headache.any || headache.suddenSevere) && bowel.vomiting)),
 
@@ -279,6 +311,9 @@ export const TRIAGE_RULES: readonly TriageRule[] = [
   rule('spinal-pain-pattern', 'urgent', SOURCES.niceSevereBack, ({ pain }) =>
     pain.bandLike
     || (hasAny(pain.locations, SPINE_LOCATIONS) && (pain.newOrWorse || pain.wakesAtNight || pain.worseOnStraining || pain.worst >= 7))),
+  rule('spinal-pain-worse-since-last', 'urgent', SOURCES.progressiveSpine, ({ pain }, { baseline }) =>
+    hasAny(pain.locations, SPINE_LOCATIONS) && baseline !== null && pain.worst - baseline.pain >= WORSENING_POINTS),
+  rule('pain-with-tingling', 'urgent', SOURCES.painTingling, ({ pain }) => pain.worst >= 1 && pain.tinglingOrNumbness),
   rule('severe-pain-new-or-worse', 'urgent', SOURCES.serlin, ({ pain }) =>
     pain.worst >= 7 && pain.newOrWorse),
   rule('blood-in-urine', 'urgent', SOURCES.commonPractice, ({ urinary }) => urinary.blood),
@@ -291,8 +326,14 @@ export const TRIAGE_RULES: readonly TriageRule[] = [
   rule('glucose-very-high', 'urgent', SOURCES.glucose, entry => glucoseAtLeast(entry, 300)),
   rule('glucose-very-low', 'urgent', SOURCES.adaLow2, entry => glucoseBelow(entry, 54)),
   rule('low-sugar-needed-help', 'urgent', SOURCES.adaLow3, ({ sugar }) => sugar.neededHelpForLowSugar),
-  rule('fever-with-chills-or-confusion', 'urgent', SOURCES.feverSameDay, entry =>
-    fever(entry) && (entry.infection.shakingChills || newConfusion(entry) || entry.urinary.burning)),
+  rule('fever-with-warning-signs', 'urgent', SOURCES.feverSameDay, entry =>
+    fever(entry) && (entry.infection.shakingChills || newConfusion(entry) || entry.urinary.burning
+      || diarrhoeaGrade(entry) >= 2 || entry.bowel.vomiting)),
+  rule('fever-high', 'urgent', SOURCES.highFever, (entry) => {
+    const value = celsius(entry)
+    return value !== null && value > 39
+  }),
+  rule('diarrhoea-with-vomiting', 'urgent', SOURCES.dehydration, entry => diarrhoeaGrade(entry) >= 2 && entry.bowel.vomiting),
   rule('diarrhoea-grade-3', 'urgent', SOURCES.diarrhoea3, entry => diarrhoeaGrade(entry) >= 3),
   rule('constipation-no-movement', 'urgent', SOURCES.constipation3, entry => constipationGrade(entry) >= 3),
   rule('blood-or-black-stool', 'urgent', SOURCES.giBleed, ({ bowel }) => bowel.bloodOrBlackStool),
@@ -300,7 +341,6 @@ export const TRIAGE_RULES: readonly TriageRule[] = [
   rule('fall-injury', 'urgent', SOURCES.fracture, ({ falls }) => falls.hitHeadOrHurt || falls.cannotBearWeight),
   rule('rash-spreading', 'urgent', SOURCES.spreadingRash, ({ allergy }) => allergy.spreading),
   rule('confused-or-hard-to-wake', 'urgent', SOURCES.confusion, ({ mind }) => mind.confusedOrHardToWake),
-  rule('headache-sudden-severe', 'urgent', SOURCES.suddenHeadache, ({ headache }) => headache.suddenSevere),
   rule('hot-flushes-grade-3', 'urgent', SOURCES.ctcae, entry => hotFlushGrade(entry) >= 3),
   rule('fatigue-grade-3', 'urgent', SOURCES.ctcae, entry => fatigueGrade(entry) >= 3),
 
@@ -317,6 +357,7 @@ export const TRIAGE_RULES: readonly TriageRule[] = [
   rule('high-sugar-symptoms', 'routine', SOURCES.ada, highSugarSymptoms),
   rule('glucose-high-with-symptoms', 'routine', SOURCES.adaHigh, entry =>
     glucoseAtLeast(entry, 200) && highSugarSymptoms(entry)),
+  rule('glucose-high', 'routine', SOURCES.adaHighAlone, entry => glucoseAtLeast(entry, 200)),
   rule('glucose-low', 'routine', SOURCES.adaLow1, entry => glucoseBelow(entry, 70)),
   rule('low-sugar-signs', 'routine', SOURCES.adaLowSigns, ({ sugar }) => sugar.lowSugarSigns),
   rule('infection-signs', 'routine', SOURCES.infection, ({ infection }) =>
@@ -374,6 +415,8 @@ function baselineFrom(previous: DiaryEntryInput): Baseline {
     injectionSite: injectionSiteGrade(previous),
     diarrhoea: bowel ? gradeDiarrhoea(bowel.extraStoolsPerDay) : 0,
     constipation: bowel ? gradeConstipation(bowel.constipation) : 0,
+    mood: previous.mood.phq2Interest + previous.mood.phq2Down,
+    ipss: null,
   }
 }
 
@@ -385,11 +428,15 @@ function baselineFrom(previous: DiaryEntryInput): Baseline {
  */
 export function baselineOf(previous: readonly DiaryEntryInput[]): Baseline | null {
   const last = previous[0]
-  return last === undefined ? null : baselineFrom(last)
+  if (last === undefined) return null
+  // The IPSS is asked once a month: its last report is the latest entry that has one.
+  const lastIpss = previous.find(entry => entry.urinary.ipss !== undefined)?.urinary.ipss
+  return { ...baselineFrom(last), ipss: lastIpss ? ipss(lastIpss.items).total : null }
 }
 
-/** Worse by this much since the last report raises the symptom one step (pain NRS points, or CTCAE grades; Basch, from memory). */
-export const WORSENING_POINTS = 2
+/** An IPSS total this many points above his last one raises it (Barry 1995, from memory). */
+export const IPSS_RISE = 3
+
 
 function baselineRule(id: string, symptomRules: readonly string[], value: (entry: DiaryEntryInput) => number, last: (baseline: Baseline) => number): RaiseRule {
   return {
@@ -438,14 +485,17 @@ function riskRule(factor: RiskFactor, symptomRules: readonly string[], atMost: T
   }
 }
 
-const PAIN_RULES = ['spinal-pain-neurological', 'spinal-pain-pattern', 'severe-pain-new-or-worse', 'severe-pain', 'pain-night-or-straining']
+const PAIN_RULES = ['spinal-pain-neurological', 'spinal-pain-pattern', 'spinal-pain-worse-since-last', 'pain-with-tingling', 'severe-pain-new-or-worse', 'severe-pain', 'pain-night-or-straining']
 const NEUROLOGICAL_RULES = ['right-now-weakness', 'right-now-numbness', 'right-now-walking', 'right-now-bladder-bowel', 'tingling-or-numbness']
-const URINARY_RULES = ['right-now-cannot-pass-urine', 'weak-stream', 'ipss-severe', 'blood-in-urine', 'burning-urine']
-const SUGAR_RULES = ['glucose-very-high', 'glucose-very-low', 'low-sugar-needed-help', 'high-sugar-symptoms', 'glucose-high-with-symptoms', 'glucose-low', 'low-sugar-signs']
+/** Urinary findings; with a known obstruction a fever with warning signs is likely urosepsis (common practice). */
+const URINARY_RULES = ['right-now-cannot-pass-urine', 'weak-stream', 'ipss-severe', 'blood-in-urine', 'burning-urine', 'fever-with-warning-signs']
+const SUGAR_RULES = ['glucose-high', 'glucose-very-high', 'glucose-very-low', 'low-sugar-needed-help', 'high-sugar-symptoms', 'glucose-high-with-symptoms', 'glucose-low', 'low-sugar-signs']
 const HEART_RULES = ['fainting-with-heart-signs', 'fainting', 'heart-signs-together', 'heart-racing-or-irregular', 'leg-swelling', 'breathless-light-effort']
 const RHYTHM_RULES = ['fainting-with-heart-signs', 'fainting', 'heart-racing-or-irregular']
-const MIND_AND_HEADACHE_RULES = ['confused-or-hard-to-wake', 'mind-changes', 'vomiting-with-confusion', 'headache-vision-or-vomiting', 'headache-sudden-severe', 'headache-new']
-const INFECTION_RULES = ['fever-during-chemotherapy', 'fever-with-chills-or-confusion', 'fever', 'infection-signs', 'temperature-low', 'injection-site-infection', 'burning-urine']
+const MIND_AND_HEADACHE_RULES = ['head-injury-with-confusion', 'confused-or-hard-to-wake', 'mind-changes', 'vomiting-with-confusion', 'headache-vision-or-vomiting', 'headache-sudden-severe', 'headache-new']
+/** Infection, and the bowel upsets that are dangerous during chemotherapy (neutropenic enterocolitis, dehydration; common practice). */
+const INFECTION_RULES = ['fever-during-chemotherapy', 'fever-with-warning-signs', 'fever-high', 'fever', 'infection-signs', 'temperature-low',
+  'injection-site-infection', 'burning-urine', 'diarrhoea-with-vomiting', 'diarrhoea-grade-3', 'diarrhoea-grade-2', 'vomiting']
 
 export const RAISE_RULES: readonly RaiseRule[] = [
   // Worse by 2 or more since his last report: one step up, at least routine, at most urgent.
@@ -455,13 +505,28 @@ export const RAISE_RULES: readonly RaiseRule[] = [
   baselineRule('baseline-injection-site', ['injection-site-infection', 'injection-site-signs'], injectionSiteGrade, last => last.injectionSite),
   baselineRule('baseline-diarrhoea', ['diarrhoea-grade-3', 'diarrhoea-grade-2'], diarrhoeaGrade, last => last.diarrhoea),
   baselineRule('baseline-constipation', ['constipation-no-movement', 'constipation-persistent'], constipationGrade, last => last.constipation),
+  baselineRule('baseline-mood', ['phq2-positive'], ({ mood }) => mood.phq2Interest + mood.phq2Down, last => last.mood),
+  // The IPSS has 35 points, not a 5-point scale: a rise of 3 since his last IPSS.
+  {
+    id: 'baseline-ipss',
+    raisedBy: 'baseline',
+    symptomRules: ['ipss-severe', 'weak-stream'],
+    atLeast: 'routine',
+    atMost: 'urgent',
+    source: SOURCES.barryChange,
+    ...keys('baseline-ipss'),
+    test: ({ urinary }, { baseline }) => baseline !== null && baseline.ipss !== null && urinary.ipss !== undefined
+      && ipss(urinary.ipss.items).total - baseline.ipss >= IPSS_RISE,
+  },
 
   // Flare watch. Pain in any place counts as possible bone pain: the diary's places leave
   // out the pelvis, shoulders, skull and breastbone, where bone metastases are common, so
   // "other" may be bone too (and one more place ticked can then never lower the level).
   // New or worse pain of 4 or more: one step up, at least urgent.
+  // Severe pain (7 or more) counts whether or not he ticked "new": on a first entry there
+  // is nothing to compare with, and a flare is a worsening by definition.
   flareRule('flare-watch-bone-pain', PAIN_RULES, 'urgent', 'emergency', ({ pain }) =>
-    pain.worst >= 4 && pain.newOrWorse),
+    (pain.worst >= 4 && pain.newOrWorse) || pain.worst >= 7),
   // Mild new or worse pain (1 or more): one step up, at least routine, at most urgent.
   flareRule('flare-watch-mild-bone-pain', PAIN_RULES, 'routine', 'urgent', ({ pain }) =>
     pain.worst >= 1 && pain.newOrWorse),
@@ -483,7 +548,7 @@ export const RAISE_RULES: readonly RaiseRule[] = [
     'GnRH-agonist depot prescribing information, Warnings (QT prolongation); fainting or palpitations with a long QT may be an arrhythmia: from memory'),
   riskRule('seizures', MIND_AND_HEADACHE_RULES, 'emergency',
     'GnRH-agonist depot prescribing information, Warnings (convulsions, post-marketing; from memory); common practice'),
-  riskRule('chemotherapy', INFECTION_RULES, 'emergency', SOURCES.niceFever),
+  riskRule('chemotherapy', INFECTION_RULES, 'emergency', `${SOURCES.niceFever}; diarrhoea or vomiting during chemotherapy the same day: common practice`),
 ]
 
 export interface TriageTargets {

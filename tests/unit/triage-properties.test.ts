@@ -330,7 +330,9 @@ describe('property 1: monotone — a worse answer never lowers the level or remo
   })
 
   it('(b) a better earlier report never lowers the level', () => {
-    property([entryArb, contextArb, entryArb, worseningArb], (entry, context, lastReport, worsen) => {
+    property([entryArb, contextArb, entryArb.map(withIpss), worseningArb], (entry, context, lastReport, worsen) => {
+      // The last report has its IPSS answered, so that "worse" changes an answer and never
+      // only adds the monthly IPSS (which would make a different report the IPSS baseline).
       const worseLastReport = worsen(lastReport)
       const afterWorseWeek = evaluateTriage(entry, { ...context, baseline: [worseLastReport, ...context.baseline] })
       const afterBetterWeek = evaluateTriage(entry, { ...context, baseline: [lastReport, ...context.baseline] })

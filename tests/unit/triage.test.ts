@@ -316,10 +316,80 @@ const CASES: Record<string, RuleCase> = {
     fires: entryWith(heart('fainting', 'racingOrIrregular')),
     misses: entryWith(heart('fainting', 'oneLegPainfulSwollen')),
   },
-  'leg-clot-with-breathlessness': {
-    source: 'common practice, from memory (possible pulmonary embolism)', level: 'emergency',
-    fires: entryWith(heart('oneLegPainfulSwollen', 'breathlessLightEffort')),
+  'possible-lung-clot': {
+    source: 'common practice; Wells criteria, NICE NG158, from memory (possible pulmonary embolism)', level: 'emergency',
+    fires: entryWith(heart('oneLegPainfulSwollen', 'racingOrIrregular')),
     misses: entryWith(heart('oneLegPainfulSwollen', 'legSwelling')),
+  },
+  'black-stool-with-fainting': {
+    source: 'common practice (bleeding with collapse)', level: 'emergency',
+    fires: entryWith(bowel({ bloodOrBlackStool: true }), heart('fainting')),
+    misses: entryWith(bowel({ bloodOrBlackStool: true }), heart('racingOrIrregular')),
+  },
+  'constipation-with-vomiting': {
+    source: 'common practice (possible bowel obstruction)', level: 'emergency',
+    fires: entryWith(bowel({ constipation: 'no-movement-despite-laxatives', vomiting: true })),
+    misses: entryWith(bowel({ constipation: 'persistent', vomiting: true })),
+  },
+  'head-injury-with-confusion': {
+    source: 'NICE NG232 head injury, from memory; common practice', level: 'emergency',
+    fires: entryWith(yes('falls'), yes('falls', 'hitHeadOrHurt'), yes('mind')),
+    misses: entryWith(yes('falls'), yes('falls', 'hitHeadOrHurt'), yes('mind', 'memoryOrConcentration')),
+  },
+  'rash-with-fainting': {
+    source: 'WAO 2020 anaphylaxis criteria, from memory; prescribing information (hypersensitivity)', level: 'emergency',
+    fires: entryWith(yes('allergy'), heart('fainting')),
+    misses: entryWith(yes('allergy'), heart('racingOrIrregular')),
+  },
+  'low-sugar-with-confusion': {
+    source: 'ADA 2025 section 6: level 3 (altered mental state)', level: 'emergency',
+    fires: entryWith(glucose(69, 'mg/dL'), yes('mind', 'confusedOrHardToWake')),
+    misses: entryWith(glucose(70, 'mg/dL'), yes('mind', 'confusedOrHardToWake')),
+  },
+  'high-sugar-with-confusion': {
+    source: 'ADA hyperglycaemic crises consensus, from memory', level: 'emergency',
+    fires: entryWith(glucose(16.7, 'mmol/L'), yes('mind')),
+    misses: entryWith(glucose(16.6, 'mmol/L'), yes('mind')),
+  },
+  'spinal-pain-worse-since-last': {
+    source: 'NICE NG234 (progressive spinal pain); Basch: 2 points since the last report, from memory', level: 'urgent',
+    fires: entryWith(painOf(4, 'neck')),
+    misses: entryWith(painOf(4, 'hips')),
+    context: { baseline: [entryWith(painOf(2, 'neck'))] },
+  },
+  'pain-with-tingling': {
+    source: 'NICE NG234 (radicular pain with sensory change); common practice', level: 'urgent',
+    fires: entryWith(painOf(1, 'legs'), tingling),
+    misses: entryWith(painOf(0), tingling),
+  },
+  'fever-high': {
+    source: 'CTCAE v5.0 fever grade 2 (above 39.0 °C); common practice', level: 'urgent',
+    fires: entryWith(temperature(39.1)),
+    misses: entryWith(temperature(39.0)),
+  },
+  'diarrhoea-with-vomiting': {
+    source: 'common practice (dehydration)', level: 'urgent',
+    fires: entryWith(bowel({ extraStoolsPerDay: 4, vomiting: true })),
+    misses: entryWith(bowel({ extraStoolsPerDay: 3, vomiting: true })),
+  },
+  'glucose-high': {
+    source: 'ADA 2025: 200 mg/dL or more suggests diabetes', level: 'routine',
+    fires: entryWith(glucose(200, 'mg/dL')),
+    misses: entryWith(glucose(199, 'mg/dL')),
+  },
+  'baseline-mood': {
+    source: 'Basch 2016: 2 points since the last report, from memory; PHQ-2 (Kroenke 2003)', level: 'routine',
+    fires: entryWith(e => (e.mood = { phq2Interest: 1, phq2Down: 1 })),
+    misses: entryWith(e => (e.mood = { phq2Interest: 1, phq2Down: 1 })),
+    context: { baseline: [entryWith()] },
+    missContext: { baseline: [entryWith(e => (e.mood = { phq2Interest: 1, phq2Down: 0 }))] },
+  },
+  'baseline-ipss': {
+    source: 'Barry 1995: about 3 IPSS points is a noticed change, from memory', level: 'routine',
+    // IPSS 5 last month, 8 now (moderate, not severe): 3 points up; 7 is only 2.
+    fires: entryWith(ipssItems([2, 2, 1, 1, 1, 1, 0])),
+    misses: entryWith(ipssItems([2, 2, 1, 1, 1, 0, 0])),
+    context: { baseline: [entryWith(), entryWith(ipssItems([1, 1, 1, 1, 1, 0, 0]))] },
   },
   'headache-vision-or-vomiting': {
     source: 'prescribing information (pituitary apoplexy), from memory', level: 'emergency',
@@ -346,7 +416,7 @@ const CASES: Record<string, RuleCase> = {
     fires: entryWith(e => (e.sugar.neededHelpForLowSugar = true)),
     misses: entryWith(e => (e.sugar.lowSugarSigns = true)),
   },
-  'fever-with-chills-or-confusion': {
+  'fever-with-warning-signs': {
     source: 'REFERENCES.md fever during cancer treatment: common practice', level: 'urgent',
     fires: entryWith(temperature(100.4, '°F'), yes('infection', 'shakingChills')),
     misses: entryWith(temperature(100.3, '°F'), yes('infection', 'shakingChills')),
@@ -387,7 +457,7 @@ const CASES: Record<string, RuleCase> = {
     misses: entryWith(yes('mind', 'memoryOrConcentration')),
   },
   'headache-sudden-severe': {
-    source: 'common practice; prescribing information (pituitary apoplexy), from memory', level: 'urgent',
+    source: 'common practice: thunderclap headache (NICE CKS red flags, from memory); prescribing information (pituitary apoplexy), from memory', level: 'emergency',
     fires: entryWith(yes('headache'), yes('headache', 'suddenSevere')),
     misses: entryWith(yes('headache')),
   },
@@ -710,7 +780,7 @@ describe('worse than his last report (Basch 2016 and PRO-TECT 2022: worse by 2 o
 
   it('raises the worsened symptom, not an unrelated finding beside it', () => {
     const entry = entryWith(painOf(5, 'hips'), e => (e.mood = { phq2Interest: 2, phq2Down: 2 }))
-    const result = triage(entry, { baseline: steadyBaseline(painOf(2, 'hips')) })
+    const result = triage(entry, { baseline: steadyBaseline(painOf(2, 'hips'), e => (e.mood = { phq2Interest: 2, phq2Down: 2 })) })
     expect(result.level).toBe('routine')
   })
 
@@ -927,9 +997,15 @@ describe('pain (issue 9; Serlin 1995; NICE NG234)', () => {
     expect(triage(entryWith(painOf(worst, 'back'), tingling), { flareWatchActive: true }).level).toBe('emergency')
   })
 
-  it('band-like (radicular) pain with tingling is an emergency; tingling in the legs alone is routine', () => {
+  it('band-like (radicular) pain with tingling is an emergency; pain elsewhere with tingling urgent; tingling with no pain routine', () => {
     expect(triage(entryWith(painOf(3, 'ribs'), e => (e.pain.bandLike = true), tingling)).level).toBe('emergency')
-    expect(triage(entryWith(painOf(3, 'legs'), tingling)).level).toBe('routine')
+    expect(triage(entryWith(painOf(3, 'legs'), tingling)).level).toBe('urgent')
+    expect(triage(entryWith(tingling)).level).toBe('routine')
+  })
+
+  it('back pain 2 -> 5 since the last report, "worse" not ticked, is urgent (NG234: progressive spinal pain)', () => {
+    expect(triage(entryWith(painOf(5, 'back')), { baseline: [entryWith(painOf(2, 'back'))] }).level).toBe('urgent')
+    expect(triage(entryWith(painOf(5, 'back')), { baseline: [entryWith(painOf(4, 'back'))] }).level).toBe('none')
   })
 
   it('spinal pain with a right-now neurological sign gives the spinal-cord reason besides the right-now one', () => {
