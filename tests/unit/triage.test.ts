@@ -668,6 +668,13 @@ describe.each(Object.entries(CASES))('rule %s', (id, ruleCase) => {
   })
 })
 
+describe('rules version', () => {
+  it('is tidewell-triage-3 (issue 9), stored with every result', () => {
+    expect(RULES_VERSION).toBe('tidewell-triage-3')
+    expect(triage(emptyDiaryEntry()).rulesVersion).toBe('tidewell-triage-3')
+  })
+})
+
 describe('levels', () => {
   it('are ordered none < routine < urgent < emergency', () => {
     expect(LEVELS).toEqual(['none', 'routine', 'urgent', 'emergency'])
