@@ -55,13 +55,15 @@ describe('queue items are created with the entry', () => {
 
   it('a quiet entry opens no item, a routine one a review item with the routine target', async () => {
     const patient = await Client.signIn(app.url, 'desmond@demo.tidewell.test')
-    const quiet = await patient.post(`/api/patients/${ids['LPU-1009']}/diary`, diaryEntry())
-    expect((await sql(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [quiet.body.id]))).toHaveLength(0)
-    // PHQ-2 total >= 3 is a positive screen (Kroenke 2003) -> routine.
+    // PHQ-2 total >= 3 is a positive screen (Kroenke 2003) -> routine. His first entry, so
+    // no baseline to be worse than (a rise of 2 points since the last report raises it).
     const routine = await patient.post(`/api/patients/${ids['LPU-1009']}/diary`, diaryEntry({ mood: { phq2Interest: 2, phq2Down: 1 } }))
     expect(routine.body.level).toBe('routine')
     const [item] = await sql<{ level: string }>(app.dbPath, 'SELECT level FROM triage_items WHERE diary_entry_id = ?', [routine.body.id])
     expect(item!.level).toBe('routine')
+    const quiet = await patient.post(`/api/patients/${ids['LPU-1009']}/diary`, diaryEntry())
+    expect(quiet.body.level).toBe('none')
+    expect((await sql(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [quiet.body.id]))).toHaveLength(0)
   })
 })
 
@@ -164,7 +166,8 @@ describe('the queue', () => {
     expect((await nurse.post(`/api/triage/${id}/events`, { type: 'claim' })).status).toBe(409)
 
     const history = (await patient.get(`/api/patients/${ids['LPU-1012']}/diary`)).body.entries
-    expect(history[0].review).toEqual({ status: 'closed', disposition: 'visit-booked' })
+    expect(history[0].review).toEqual({ status: 'closed', disposition: 'visit-booked', closedAt: expect.any(String) })
+    expect(Date.parse(history[0].review.closedAt)).toBeGreaterThanOrEqual(Date.parse(history[0].submittedAt))
 
     const audit = await sql<{ action: string }>(app.dbPath, `SELECT action FROM audit_events WHERE patient_id = ? AND action = 'triage.work'`, [ids['LPU-1012']])
     expect(audit.length).toBeGreaterThanOrEqual(6)
