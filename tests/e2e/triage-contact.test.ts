@@ -160,3 +160,48 @@ describe('a closed emergency reads as the past on the entry page', () => {
     await page.close()
   })
 })
+
+describe('a caregiver on the entry page and on the item', () => {
+  it('she keeps her own phone, reads his entry in words about him, and the nurse can call her from the item', async () => {
+    // Dana helps Bernard with view-only access; an item of his is closed again at the end,
+    // so the queue test that follows him finds only its own.
+    const DANA_PHONE = '(414) 555-0131'
+    const patient = await Client.signIn(inject('appUrl'), 'bernard@demo.tidewell.test')
+    const patientId = await patientIdOf(patient)
+    const nurse = await Client.signIn(inject('appUrl'), NURSE)
+    // Blood in the urine is urgent (issue 4 defaults, common practice).
+    const sent = await patient.post(`/api/patients/${patientId}/diary`, diaryEntry({ urinary: { blood: true } }))
+    expect(sent.status).toBe(201)
+    expect(sent.body.level).toBe('urgent')
+    const item = await itemOfEntry(nurse, 'LPU-1002', sent.body.id)
+    try {
+      const dana = await signInAs('dana@demo.tidewell.test')
+      await goTo(dana, '/contact')
+      await dana.getByRole('heading', { level: 1, name: 'Phone numbers for Bernard Achterberg' }).waitFor()
+      await dana.getByRole('region', { name: 'Bernard Achterberg\'s phone numbers' }).getByText('(414) 555-0118').waitFor()
+      await dana.getByLabel('Your phone number').fill(DANA_PHONE)
+      await dana.getByRole('button', { name: 'Save', exact: true }).click()
+      await dana.getByRole('status').filter({ hasText: 'Your phone number is saved.' }).waitFor()
+
+      await goTo(dana, `/diary/${sent.body.id}`)
+      const main = dana.locator('main')
+      await dana.getByRole('heading', { level: 1, name: 'The diary for Bernard Achterberg was sent' }).waitFor()
+      await main.getByText('This is Bernard Achterberg\'s entry. The advice is for him; please help him follow it.').waitFor()
+      await main.getByText('A nurse will contact Bernard Achterberg today.').waitFor()
+      await main.getByText(/A nurse will call Bernard Achterberg by .+\. Keep the phone close\./).waitFor()
+      expect(await seriousAxeViolations(dana)).toEqual([])
+      await dana.close()
+
+      const page = await signInAs(NURSE)
+      await goTo(page, `/staff/triage/${item.id}`)
+      const reach = page.getByRole('region', { name: 'How to reach him' })
+      const call = reach.getByRole('link', { name: `Call Dana Achterberg, caregiver: ${DANA_PHONE}` })
+      await expect(call.getAttribute('href')).resolves.toBe('tel:4145550131')
+      await page.close()
+    }
+    finally {
+      await nurse.post(`/api/triage/${item.id}/events`, { type: 'disposition', disposition: 'no-action' })
+      await nurse.post(`/api/triage/${item.id}/events`, { type: 'close' })
+    }
+  })
+})

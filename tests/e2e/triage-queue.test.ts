@@ -104,7 +104,7 @@ describe('the triage queue', () => {
 
     // The patient sees on his diary history that the care team dealt with it, and how.
     const history = (await patient.get(`/api/patients/${patientId}/diary`)).body.entries as { id: number, review: unknown }[]
-    expect(history.find(e => e.id === entry.id)?.review).toEqual({ status: 'closed', disposition: 'visit-booked' })
+    expect(history.find(e => e.id === entry.id)?.review).toEqual({ status: 'closed', disposition: 'visit-booked', closedAt: expect.any(String) })
     const own = await signInAs(PATIENT)
     await own.goto(url('/diary'))
     await own.getByRole('heading', { level: 1, name: 'Your diary' }).waitFor()
