@@ -78,6 +78,7 @@ describe('phones and the risk profile reach the nurse on the item', () => {
     await form.getByLabel('Diabetes').check()
     await form.getByRole('button', { name: 'Save risk profile' }).click()
     await page.getByRole('status').filter({ hasText: 'Risk profile saved.' }).waitFor()
+    expect(await seriousAxeViolations(page)).toEqual([])
     const nurse = await Client.signIn(inject('appUrl'), NURSE)
     const profile = await nurse.get(`/api/patients/${patientId}/risk-profile`)
     expect(profile.body.riskProfile).toMatchObject({ spinalMetastases: true, diabetes: true, heartDisease: false, longQt: false })
