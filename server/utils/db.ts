@@ -1,3 +1,4 @@
+import { AsyncLocalStorage } from 'node:async_hooks'
 import { mkdirSync } from 'node:fs'
 import { dirname, resolve } from 'node:path'
 import { Sequelize, Transaction } from 'sequelize'
@@ -43,6 +44,29 @@ function configureEachConnection(sequelize: Sequelize) {
   }
 }
 
+/*
+ * SQLite has one writer at a time, and every transaction here takes the write lock at
+ * BEGIN. Left to SQLite, the waiting happens in its busy handler on node-sqlite3's worker
+ * threads, and measured on this server eight diaries sent at once stalled until the busy
+ * timeout and seven of them failed. So this process's managed transactions
+ * (sequelize.transaction(callback)) wait their turn in JavaScript, one after another; one
+ * started inside another's callback runs at once, as before. Queries inside a transaction
+ * pass it (see getSettings), so none waits on the shared connection.
+ */
+function queueTransactions(sequelize: Sequelize) {
+  const inside = new AsyncLocalStorage<true>()
+  const begin = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>
+  let tail: Promise<unknown> = Promise.resolve()
+  sequelize.transaction = ((...args: unknown[]) => {
+    const managed = args.some(arg => typeof arg === 'function')
+    if (!managed || inside.getStore()) return begin(...args)
+    const run = () => inside.run(true, () => begin(...args))
+    const result = tail.then(run, run)
+    tail = result.catch(() => undefined)
+    return result
+  }) as Sequelize['transaction']
+}
+
 async function connect(): Promise<Sequelize> {
   const config = useRuntimeConfig()
   const storage = resolve(config.databasePath)
@@ -57,6 +81,7 @@ async function connect(): Promise<Sequelize> {
     retry: { max: 5, match: [/SQLITE_BUSY/] },
   })
   configureEachConnection(sequelize)
+  queueTransactions(sequelize)
   await sequelize.query('PRAGMA journal_mode = WAL;')
   initModels(sequelize)
   await migrate(sequelize)

@@ -49,7 +49,7 @@ export function diaryView(entry: DiaryEntry, enteredBy: EnteredBy, item?: Pick<T
  * the one kept. `entryId` leaves the entry being completed out of its own baseline.
  */
 export async function triageNewEntry(patient: Patient, answers: DiaryEntryInput, submittedAt: Date, transaction?: Transaction, entryId?: number): Promise<TriageResult & { flareWatchActive: boolean }> {
-  const settings = await getSettings()
+  const settings = await getSettings(transaction)
   const previous = await DiaryEntry.findAll({
     where: { patientId: patient.id, complete: true, ...(entryId ? { id: { [Op.ne]: entryId } } : {}) },
     order: [['submittedAt', 'DESC'], ['id', 'DESC']],

@@ -1,3 +1,4 @@
+import type { Transaction } from 'sequelize'
 import { ClinicSetting } from '../db/models'
 
 /**
@@ -21,9 +22,14 @@ export const DEFAULT_SETTINGS = {
 
 export type ClinicSettings = typeof DEFAULT_SETTINGS
 
-export async function getSettings(): Promise<ClinicSettings> {
+/**
+ * The settings now. Inside a transaction pass it: a query outside it waits for any other
+ * write on the shared connection, which may itself wait for this transaction (a stall
+ * until the busy timeout).
+ */
+export async function getSettings(transaction?: Transaction): Promise<ClinicSettings> {
   await useDb()
-  const rows = await ClinicSetting.findAll()
+  const rows = await ClinicSetting.findAll({ transaction })
   const stored = Object.fromEntries(rows.filter(row => row.key in DEFAULT_SETTINGS).map(row => [row.key, row.value]))
   return { ...DEFAULT_SETTINGS, ...stored } as ClinicSettings
 }

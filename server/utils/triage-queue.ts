@@ -69,7 +69,7 @@ export async function openTriageItem(
   if (!created) return null
   await TriageEvent.create({ itemId: item.id, actorUserId: null, type: 'created', note: null, at: input.at ?? new Date() }, { transaction })
   if (ALERTED.includes(item.level)) {
-    const settings = await getSettings()
+    const settings = await getSettings(transaction)
     await alertStaff(item, 'triageAlert', settings.nursesOnDuty, transaction)
   }
   return item

@@ -124,6 +124,18 @@ describe('POST /api/patients/:id/diary/right-now', () => {
     expect((await alertsFor(items[0]!.id)).length).toBe(NURSES_ON_DUTY.length)
   })
 
+  it('eight diaries and right-now reports sent at the same moment are all stored', async () => {
+    const patient = await Client.signIn(app.url, 'mateo@demo.tidewell.test')
+    const id = ids['LPU-1012']!
+    const before = (await entriesOf(id)).length
+    const replies = await Promise.all(Array.from({ length: 8 }, (_, n) => n % 2
+      ? patient.post(`/api/patients/${id}/diary/right-now`, { draftId: randomUUID(), items: ['chestPain'] })
+      : patient.post(`/api/patients/${id}/diary`, { ...diaryEntry(), draftId: randomUUID() })))
+    expect(replies.map(r => r.status)).toEqual([201, 201, 201, 201, 201, 201, 201, 201])
+    expect((await entriesOf(id)).length).toBe(before + 8)
+    expect((await itemsOf(id)).length).toBe(4)
+  }, 30_000)
+
   it('a caregiver\'s right-now yes does the same, and only with the grant to log', async () => {
     const viewOnly = await Client.signIn(app.url, 'dana@demo.tidewell.test')
     expect((await viewOnly.post(`/api/patients/${ids['LPU-1002']}/diary/right-now`, { draftId: randomUUID(), items: ['newWeakness'] })).status).toBe(403)

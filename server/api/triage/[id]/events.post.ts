@@ -46,7 +46,7 @@ export default defineEventHandler(async (event) => {
       case 'escalate': {
         await item.update({ ...startWork, escalatedAt: item.escalatedAt ?? now }, { transaction })
         await log('escalated', { automatic: false })
-        await alertStaff(item, 'triageEscalation', (await getSettings()).clinicianAlertList, transaction, `manual-${now.getTime()}`)
+        await alertStaff(item, 'triageEscalation', (await getSettings(transaction)).clinicianAlertList, transaction, `manual-${now.getTime()}`)
         break
       }
       case 'disposition':
