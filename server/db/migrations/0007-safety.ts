@@ -12,19 +12,26 @@ export const up: MigrationFn = async ({ context: qi }) => {
   await qi.addColumn('diary_entries', 'complete', { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true })
   await qi.addIndex('diary_entries', ['patient_id', 'draft_id'], { unique: true, name: 'diary_entries_patient_draft' })
   await qi.addColumn('patients', 'risk_profile', { type: DataTypes.JSON, allowNull: true })
-  await qi.addColumn('patients', 'phones', { type: DataTypes.JSON, allowNull: false, defaultValue: '[]' })
+  await qi.addColumn('patients', 'phones', { type: DataTypes.JSON, allowNull: false, defaultValue: [] })
   await qi.addColumn('patients', 'best_times_to_call', { type: DataTypes.STRING(200), allowNull: false, defaultValue: '' })
   await qi.addColumn('patients', 'preferred_contact', { type: DataTypes.STRING, allowNull: false, defaultValue: 'phone' })
   await qi.addColumn('users', 'phone', { type: DataTypes.STRING, allowNull: true })
 }
 
+/*
+ * SQLite's own DROP COLUMN (3.35+): Sequelize's removeColumn rebuilds the table instead,
+ * and dropping the old patients table would cascade to every row that refers to it.
+ */
 export const down: MigrationFn = async ({ context: qi }) => {
-  await qi.removeColumn('users', 'phone')
-  await qi.removeColumn('patients', 'preferred_contact')
-  await qi.removeColumn('patients', 'best_times_to_call')
-  await qi.removeColumn('patients', 'phones')
-  await qi.removeColumn('patients', 'risk_profile')
   await qi.removeIndex('diary_entries', 'diary_entries_patient_draft')
-  await qi.removeColumn('diary_entries', 'complete')
-  await qi.removeColumn('diary_entries', 'draft_id')
+  const drops: [table: string, column: string][] = [
+    ['users', 'phone'],
+    ['patients', 'preferred_contact'],
+    ['patients', 'best_times_to_call'],
+    ['patients', 'phones'],
+    ['patients', 'risk_profile'],
+    ['diary_entries', 'complete'],
+    ['diary_entries', 'draft_id'],
+  ]
+  for (const [table, column] of drops) await qi.sequelize.query(`ALTER TABLE "${table}" DROP COLUMN "${column}"`)
 }
