@@ -191,7 +191,6 @@ describe('a caregiver on the entry page and on the item', () => {
       await main.getByText('A nurse will contact Bernard Achterberg today.').waitFor()
       await main.getByText(/A nurse will call Bernard Achterberg by .+\. Keep the phone close\./).waitFor()
       expect(await seriousAxeViolations(dana)).toEqual([])
-      await dana.close()
 
       const page = await signInAs(NURSE)
       await goTo(page, `/staff/triage/${item.id}`)
@@ -199,9 +198,20 @@ describe('a caregiver on the entry page and on the item', () => {
       const call = reach.getByRole('link', { name: `Call Dana Achterberg, caregiver: ${DANA_PHONE}` })
       await expect(call.getAttribute('href')).resolves.toBe('tel:4145550131')
       await page.close()
+
+      // Closed: she reads who sent it and what the care team did, no longer what to do now.
+      expect((await nurse.post(`/api/triage/${item.id}/events`, { type: 'disposition', disposition: 'self-care' })).status).toBe(200)
+      expect((await nurse.post(`/api/triage/${item.id}/events`, { type: 'close' })).status).toBe(200)
+      await dana.reload()
+      const outcome = main.locator('[data-outcome]')
+      await outcome.getByText(/^On .+ Bernard Achterberg sent this diary entry\.$/).waitFor()
+      await expect(outcome.locator('[data-outcome-line]').textContent()).resolves.toMatch(/The care team closed this on .+: Self-care advice given\./)
+      await expect.poll(() => main.getByText('Keep the phone close', { exact: false }).count(), { timeout: 10_000 }).toBe(0)
+      await dana.close()
     }
     finally {
-      await nurse.post(`/api/triage/${item.id}/events`, { type: 'disposition', disposition: 'no-action' })
+      // Closed even when a check above failed; a second close of a closed item is refused, which is fine.
+      await nurse.post(`/api/triage/${item.id}/events`, { type: 'disposition', disposition: 'self-care' })
       await nurse.post(`/api/triage/${item.id}/events`, { type: 'close' })
     }
   })
