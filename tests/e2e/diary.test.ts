@@ -1,4 +1,4 @@
-import type { Page } from 'playwright-core'
+import type { Page, Route } from 'playwright-core'
 import { describe, expect, inject, it } from 'vitest'
 import { url, waitForHydration } from '@nuxt/test-utils/e2e'
 import { seriousAxeViolations, setupBrowser, signInAs } from '../support/browser'
@@ -288,6 +288,27 @@ describe('the weekly diary', () => {
 
     const items = await queueOf(CLOSES_THE_PAGE_CLINIC_NUMBER)
     expect(items.map(item => item.level)).toEqual(['emergency'])
+  })
+
+  it('a right-now yes the server refused is still on its way after a reload, and is delivered when the server answers', async () => {
+    const page = await signInAs(CLOSES_THE_PAGE)
+    // Stand in for a fault at the clinic's server.
+    const refuse = (route: Route) => route.fulfill({ status: 503, contentType: 'application/json', body: '{"statusCode":503}' })
+    await page.route('**/api/patients/*/diary/right-now', refuse)
+    await openDiary(page)
+    await choose(page, 'Is it hard to breathe?', 'Yes')
+    const notSent = page.getByText(/^Not sent yet: .*call 911 now\.$/)
+    await notSent.waitFor()
+
+    await page.reload()
+    await waitForHydration(page, url('/diary/new'), 'hydration')
+    await notSent.waitFor()
+    await expect(question(page, 'Is it hard to breathe?').getByRole('radio', { name: 'Yes', exact: true }).isChecked()).resolves.toBe(true)
+    await page.unroute('**/api/patients/*/diary/right-now', refuse)
+    // The next try (after a few seconds) reaches the server.
+    await page.getByText(/^Sent to the care team at .*; a nurse has been alerted\.$/).waitFor({ timeout: 30_000 })
+    await page.close()
+    await expect.poll(async () => (await queueOf(CLOSES_THE_PAGE_CLINIC_NUMBER)).map(item => item.level), { timeout: 10_000 }).toEqual(['emergency', 'emergency'])
   })
 
   it('a new area asks its details only after a yes, and a no clears them', async () => {
