@@ -123,8 +123,9 @@ function mergedRespondBy(before: { level: TriageLevel, respondBy: Date | null },
  * Triages an entry again with new answers (more right-now items, or the rest of the diary)
  * and carries the result to its queue item: the level never goes down, no reason is
  * dropped, the item stays the same one and the nurses are not alerted a second time. An
- * item already closed opens again when the new answers bring a reason it did not have.
- * An entry with no item yet opens one (alerting the nurses when it is urgent or emergency).
+ * item already closed opens again when the new answers bring a reason it did not have,
+ * and then (urgent or emergency) the nurses on duty are alerted again: nobody is looking
+ * at a closed item. An entry with no item yet opens one (alerting as a new item does).
  */
 async function retriageEntry(
   input: { entry: DiaryEntry, patient: Patient, answers: DiaryEntryInput, at: Date, complete: boolean, eventType: TriageEventType },
@@ -167,6 +168,9 @@ async function retriageEntry(
     data: { level: item.level, addedRules, reopened: reopen },
     at: input.at,
   }, { transaction })
+  if (reopen && alertsNurses(item.level)) {
+    await alertStaff(item, 'triageAlert', (await getSettings(transaction)).nursesOnDuty, transaction, `reopened-${input.at.getTime()}`)
+  }
 }
 
 function withRightNowYes(answers: DiaryEntryInput, items: readonly RightNowItem[]): DiaryEntryInput {

@@ -9,6 +9,10 @@ import { Patient, TriageEvent, TriageItem, User } from '../db/models'
 const QUEUED: readonly TriageLevel[] = ['emergency', 'urgent', 'routine']
 const ALERTED: readonly TriageLevel[] = ['emergency', 'urgent']
 
+export function alertsNurses(level: TriageLevel): boolean {
+  return ALERTED.includes(level)
+}
+
 /** A short reference that says nothing about the patient, for e-mails and phone calls. */
 export function itemReference(id: number): string {
   return `TW-${String(id).padStart(6, '0')}`

@@ -179,6 +179,41 @@ describe('POST /api/patients/:id/diary/right-now', () => {
   })
 })
 
+describe('the rest of the diary after the nurse closed the item', () => {
+  it('adds nothing new: the item stays closed; brings a new reason: the item opens again and the nurses are alerted again', async () => {
+    const patient = await Client.signIn(app.url, 'howard@demo.tidewell.test')
+    const id = ids['LPU-1011']!
+    const nurse = await Client.signIn(app.url, 'nurse@demo.tidewell.test')
+    const close = async (itemId: number) => {
+      expect((await nurse.post(`/api/triage/${itemId}/events`, { type: 'disposition', disposition: 'sent-to-emergency' })).status).toBe(200)
+      expect((await nurse.post(`/api/triage/${itemId}/events`, { type: 'close' })).status).toBe(200)
+    }
+
+    const quietDraft = randomUUID()
+    const quiet = await patient.post(`/api/patients/${id}/diary/right-now`, { draftId: quietDraft, items: ['hardToBreathe'] })
+    const [first] = await itemsOf(id)
+    await close(first!.id)
+    const rest = await patient.post(`/api/patients/${id}/diary`, { ...diaryEntry(), draftId: quietDraft })
+    expect(rest.status).toBe(200)
+    expect(rest.body.review).toMatchObject({ status: 'closed', disposition: 'sent-to-emergency' })
+    expect((await alertsFor(first!.id)).length).toBe(NURSES_ON_DUTY.length)
+    expect(quiet.body.id).toBe(rest.body.id)
+
+    const draftId = randomUUID()
+    const opened = await patient.post(`/api/patients/${id}/diary/right-now`, { draftId, items: ['chestPain'] })
+    const second = (await itemsOf(id)).find(item => item.diary_entry_id === opened.body.id)!
+    await close(second.id)
+    // Blood in the urine is urgent (issue 4 defaults, common practice): a reason the closed item did not have.
+    const more = await patient.post(`/api/patients/${id}/diary`, { ...diaryEntry({ urinary: { blood: true } }), draftId })
+    expect(more.status).toBe(200)
+    expect(more.body.review).toMatchObject({ status: 'new', closedAt: null })
+    expect((await alertsFor(second.id)).length).toBe(2 * NURSES_ON_DUTY.length)
+    const detail = (await nurse.get(`/api/triage/${second.id}`)).body
+    expect(detail.status).toBe('new')
+    expect(detail.events.at(-1)).toMatchObject({ type: 'diary-completed', data: { reopened: true } })
+  })
+})
+
 describe('a note is read by a person', () => {
   it('a note alone opens a routine item, and note-read records the event', async () => {
     const patient = await Client.signIn(app.url, 'bernard@demo.tidewell.test')
