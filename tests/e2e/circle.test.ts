@@ -33,8 +33,10 @@ async function goTo(page: Page, path: string) {
 async function sendQuietDiary(page: Page) {
   await goTo(page, '/diary/new')
   await page.getByText('You are filling in the diary for Howard Tillinghast.').waitFor()
-  for (let step = 1; step <= 9; step++) {
-    await page.getByText(new RegExp(`^Step ${step} of 10:`)).waitFor()
+  for (let step = 1; step <= 10; step++) {
+    await page.getByText(new RegExp(`^Step ${step} of 11:`)).waitFor()
+    // The right-now questions start unanswered: "None of these is happening" answers them no.
+    if (step === 1) await page.getByRole('button', { name: 'None of these is happening', exact: true }).click()
     if (step === 2) {
       await page.getByLabel('On an average day, how many hot flushes did you have?').fill('2')
       await page.getByRole('group', { name: 'How strong was the worst one?' }).getByRole('radio', { name: 'Mild', exact: true }).check()
@@ -42,9 +44,9 @@ async function sendQuietDiary(page: Page) {
     }
     const leaveIpss = page.getByRole('button', { name: 'Leave these questions for now' })
     if (step === 4 && await leaveIpss.count()) await leaveIpss.click()
-    await page.getByRole('button', { name: step === 1 ? 'None of these is happening: next' : 'Next', exact: true }).click()
+    await page.getByRole('button', { name: 'Next', exact: true }).click()
   }
-  await page.getByText('Step 10 of 10: Check your answers').waitFor()
+  await page.getByText('Step 11 of 11: Check your answers').waitFor()
   await page.getByRole('button', { name: 'Send my diary' }).click()
   await page.waitForURL(u => /^\/diary\/\d+$/.test(u.pathname))
 }
