@@ -32,17 +32,21 @@ import { percentiles, report } from './figures'
  * weeks and add their eight questions when they do. Figures are printed, never asserted.
  */
 
-const RUNS = Number(process.env.TIDEWELL_BENCH_DIARY_RUNS ?? 5)
+const RUNS = Number(process.env.TIDEWELL_BENCH_DIARY_RUNS ?? 7)
 const REAL_TIME = process.env.TIDEWELL_BENCH_REAL_TIME === '1'
 const PATIENT = 'patient@demo.tidewell.test'
 const MODEL = { wordsPerMinute: 180, answerMs: 2_000, navigateMs: 1_500, charactersPerSecond: 1.5, spread: 0.2 }
 
 /** A small deterministic generator, so every run of the benchmark models the same readers. */
 function random(seed: number) {
-  let state = seed
+  // mulberry32: 32-bit integer steps, so no precision is lost in floating point.
+  let state = seed >>> 0
   return () => {
-    state = (state * 1103515245 + 12345) % 2 ** 31
-    return state / 2 ** 31
+    state = (state + 0x6D2B79F5) >>> 0
+    let t = state
+    t = Math.imul(t ^ (t >>> 15), t | 1)
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
+    return ((t ^ (t >>> 14)) >>> 0) / 2 ** 32
   }
 }
 
