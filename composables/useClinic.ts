@@ -2,6 +2,6 @@
 export function useClinic() {
   return useFetch('/api/clinic', {
     key: 'clinic',
-    default: () => ({ clinicName: '', emergencyNumber: '911', crisisLine: '988', timeZone: 'America/Chicago' }),
+    default: () => ({ clinicName: '', emergencyNumber: '911', crisisLine: '988', timeZone: 'America/Chicago', routineResponseWorkingDays: 3 }),
   })
 }

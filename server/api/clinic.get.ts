@@ -1,4 +1,4 @@
-/** Public facts about the clinic, shown on every page (no patient data). */
+/** Public facts about the clinic, shown on every page (no patient data), and the routine response time the diary's note step names. */
 export default defineEventHandler(async () => {
   const settings = await getSettings()
   return {
@@ -6,5 +6,6 @@ export default defineEventHandler(async () => {
     emergencyNumber: settings.emergencyNumber,
     crisisLine: settings.crisisLine,
     timeZone: settings.timeZone,
+    routineResponseWorkingDays: settings.routineResponseWorkingDays,
   }
 })

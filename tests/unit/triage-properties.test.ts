@@ -204,7 +204,8 @@ function expectNotLower(before: TriageResult, after: TriageResult): void {
 }
 
 const property = <T extends unknown[]>(arbs: { [K in keyof T]: fc.Arbitrary<T[K]> }, check: (...args: T) => void, numRuns = RUNS) =>
-  fc.assert(fc.property(...arbs, check), { numRuns })
+  // fc.property's overloads take the arbitraries one by one; spread them through one typed view.
+  fc.assert((fc.property as (...args: unknown[]) => fc.IPropertyWithHooks<T>)(...arbs, check), { numRuns })
 
 describe('the generated entries are valid diary entries', () => {
   it('every generated entry and previous entry parses with diaryEntrySchema (the old ones once laid over a fresh entry)', () => {
