@@ -15,3 +15,12 @@ export async function timed<T>(work: () => Promise<T>): Promise<[number, T]> {
   const value = await work()
   return [performance.now() - start, value]
 }
+
+/** Rows printed as aligned columns under one title (the first row is the header). */
+export function table(title: string, rows: (string | number)[][], notes: string[] = []) {
+  const cells = rows.map(row => row.map(String))
+  const widths = cells[0]!.map((_, column) => Math.max(...cells.map(row => (row[column] ?? '').length)))
+  const lines = cells.map(row => `  ${row.map((cell, column) => (column === 0 ? cell.padEnd(widths[column]!) : cell.padStart(widths[column]!))).join('  ')}`)
+  lines.splice(1, 0, `  ${widths.map(width => '-'.repeat(width)).join('  ')}`)
+  console.log(`\n${title}\n${lines.join('\n')}${notes.length ? `\n${notes.map(note => `  ${note}`).join('\n')}` : ''}\n`)
+}
