@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { LANGUAGES } from '../types/roles'
 import { emailSchema, isoDateSchema, newPasswordSchema } from './auth'
+import { requestIdSchema } from './request-id'
 
 // Error messages are locale keys; the client translates them at the field.
 
@@ -14,7 +15,8 @@ export const circlePermissionsSchema = z.object({
 
 /**
  * The patient (or staff on his behalf) invites a caregiver by e-mail. The name goes into
- * the e-mail's greeting, so it may not carry a web address or markup.
+ * the e-mail's greeting, so it may not carry a web address or markup. The same requestId
+ * again returns the invitation the first try stored.
  */
 export const circleInviteSchema = z.object({
   name: z.string({ required_error: 'validation.name.required' }).trim().min(1, 'validation.name.required').max(120, 'validation.name.tooLong')
@@ -23,6 +25,7 @@ export const circleInviteSchema = z.object({
   language: z.enum(LANGUAGES).default('en'),
   canLogDiary: flag,
   canManageAppointments: flag,
+  requestId: requestIdSchema,
 }).strict()
 
 /**

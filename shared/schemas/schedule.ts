@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { SITES } from '../clinical/schedule'
 import { CHANGE_DECISIONS } from '../scheduling/types'
 import { isoDateSchema } from './auth'
+import { requestIdSchema } from './request-id'
 
 /*
  * The injection-schedule forms: one schema per form, used by vee-validate (toTypedSchema)
@@ -88,7 +89,8 @@ export function scheduleAppointmentSchema(today: string) {
 
 /**
  * Patient or caregiver: ask for another time, with up to three preferred dates (the first
- * is needed; all after today and all different) and a note.
+ * is needed; all after today and all different) and a note. The same requestId again
+ * returns the request the first try stored.
  */
 export function changeRequestSchema(today: string) {
   const later = (value: string) => value > today
@@ -97,6 +99,7 @@ export function changeRequestSchema(today: string) {
     secondChoice: optionalDate(later, 'choiceNotFuture'),
     thirdChoice: optionalDate(later, 'choiceNotFuture'),
     note: optionalNote,
+    requestId: requestIdSchema,
   }).strict().superRefine((value, ctx) => {
     const seen = new Set<string>()
     for (const key of ['firstChoice', 'secondChoice', 'thirdChoice'] as const) {

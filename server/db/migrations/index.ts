@@ -5,6 +5,7 @@ import * as triageQueue from './0004-triage-queue'
 import * as circle from './0005-circle'
 import * as labs from './0006-labs'
 import * as safety from './0007-safety'
+import * as requestIds from './0008-request-ids'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -18,4 +19,5 @@ export const migrations = [
   { name: '0005-circle', ...circle },
   { name: '0006-labs', ...labs },
   { name: '0007-safety', ...safety },
+  { name: '0008-request-ids', ...requestIds },
 ]

@@ -18,6 +18,8 @@ export class AppointmentChangeRequest extends Model<InferAttributes<AppointmentC
   declare answerNote: string | null
   declare answeredByUserId: ForeignKey<User['id']> | null
   declare answeredAt: Date | null
+  /** The id the form made (uuid), so a retry finds this record; null from older clients. */
+  declare requestId: CreationOptional<string | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
   declare requestedBy?: NonAttribute<User>
@@ -32,6 +34,7 @@ export class AppointmentChangeRequest extends Model<InferAttributes<AppointmentC
       decision: { type: DataTypes.STRING, allowNull: true },
       answerNote: { type: DataTypes.TEXT, allowNull: true, field: 'answer_note' },
       answeredAt: { type: DataTypes.DATE, allowNull: true, field: 'answered_at' },
+      requestId: { type: DataTypes.STRING, allowNull: true, field: 'request_id' },
       createdAt: { type: DataTypes.DATE, field: 'created_at' },
       updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
     }, { sequelize, tableName: 'appointment_change_requests' })

@@ -26,6 +26,8 @@ export class CircleInvitation extends Model<InferAttributes<CircleInvitation>, I
   declare acceptedByUserId: ForeignKey<User['id']> | null
   declare grantId: ForeignKey<CareGrant['id']> | null
   declare closedAt: Date | null
+  /** The id the form made (uuid), so a retry finds this record; null from older clients. */
+  declare requestId: CreationOptional<string | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
   declare invitedBy?: NonAttribute<User>
@@ -42,6 +44,7 @@ export class CircleInvitation extends Model<InferAttributes<CircleInvitation>, I
       status: { type: DataTypes.STRING, allowNull: false, defaultValue: 'pending' },
       expiresAt: { type: DataTypes.DATE, allowNull: false, field: 'expires_at' },
       closedAt: { type: DataTypes.DATE, allowNull: true, field: 'closed_at' },
+      requestId: { type: DataTypes.STRING, allowNull: true, field: 'request_id' },
       createdAt: { type: DataTypes.DATE, field: 'created_at' },
       updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
     }, { sequelize, tableName: 'circle_invitations' })
