@@ -1,10 +1,15 @@
 import { zonedDateTimeToUtc } from '../../../../shared/clinical/schedule'
 import { answerChangeRequestSchema } from '../../../../shared/schemas/schedule'
+import { OPEN_APPOINTMENT_STATUSES } from '../../../../shared/scheduling/types'
 import { Appointment, AppointmentChangeRequest, User } from '../../../db/models'
 
 /**
  * Staff answer a request for another time: move the appointment (it then waits for the
  * patient's confirmation again) or keep its time. The patient gets an e-mail either way.
+ * Only one answer wins: the request is closed by a conditional update (WHERE status is
+ * open) and the appointment changed only at the version read in the same transaction, so
+ * a second answer at the same moment gets 409 and writes nothing, and the e-mail and its
+ * calendar file are made from the appointment as stored.
  */
 export default defineEventHandler(async (event) => {
   await useDb()
@@ -14,36 +19,45 @@ export default defineEventHandler(async (event) => {
   const clock = await scheduleClock()
   const input = await readValidatedBody(event, parseWith(answerChangeRequestSchema(clock.today)))
   const request = await AppointmentChangeRequest.findOne({ where: { id, patientId: patient.id } })
-  const appointment = request ? await Appointment.findOne({ where: { id: request.appointmentId, patientId: patient.id } }) : null
-  if (!request || !appointment) throw createError({ statusCode: 404, message: 'errors.notFound' })
-  if (request.status !== 'open') throw createError({ statusCode: 409, message: 'errors.schedule.requestClosed' })
+  if (!request) throw createError({ statusCode: 404, message: 'errors.notFound' })
   const tz = clock.settings.timeZone
   const newStart = input.decision === 'move' ? zonedDateTimeToUtc(input.date!, input.time!, tz) : null
   if (newStart && newStart <= clock.now) {
     throw createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { time: ['validation.schedule.pastTime'] } } })
   }
-  const patientUser = await User.findByPk(patient.userId)
   const sequelize = await useDb()
-  await sequelize.transaction(async (transaction) => {
-    await request.update({ status: 'answered', decision: input.decision, answerNote: input.note ?? null, answeredByUserId: user.id, answeredAt: clock.now }, { transaction })
-    await appointment.update({
+  const appointment = await sequelize.transaction(async (transaction) => {
+    const [answered] = await AppointmentChangeRequest.update(
+      { status: 'answered', decision: input.decision, answerNote: input.note ?? null, answeredByUserId: user.id, answeredAt: clock.now },
+      { where: { id: request.id, patientId: patient.id, status: 'open' }, transaction },
+    )
+    if (!answered) throw createError({ statusCode: 409, message: 'errors.schedule.requestClosed' })
+    const current = await Appointment.findOne({ where: { id: request.appointmentId, patientId: patient.id }, transaction })
+    if (!current || !(OPEN_APPOINTMENT_STATUSES as readonly string[]).includes(current.status)) {
+      throw createError({ statusCode: 409, message: 'errors.schedule.appointmentClosed' })
+    }
+    const [changed] = await Appointment.update({
       status: 'booked',
       confirmedAt: null,
       confirmedByUserId: null,
-      ...(newStart ? { startsAt: newStart, place: input.place ?? appointment.place, sequence: appointment.sequence + 1 } : {}),
-    }, { transaction })
+      ...(newStart ? { startsAt: newStart, place: input.place ?? current.place, sequence: current.sequence + 1 } : {}),
+    }, { where: { id: current.id, status: current.status, sequence: current.sequence }, transaction })
+    if (!changed) throw createError({ statusCode: 409, message: 'errors.schedule.appointmentChanged' })
+    await current.reload({ transaction })
+    const patientUser = await User.findByPk(patient.userId, { transaction })
     if (patientUser?.active) {
       const language = patientUser.language
       await enqueueMail({
         to: patientUser.email,
         template: newStart ? 'scheduleChangeMoved' : 'scheduleChangeKept',
         language,
-        params: { name: patientUser.name, when: formatAppointmentTime(appointment.startsAt, language, tz), place: appointment.place },
+        params: { name: patientUser.name, when: formatAppointmentTime(current.startsAt, language, tz), place: current.place },
         linkPath: '/today',
-        attachments: [calendarAttachment(appointment, { language, settings: clock.settings })],
+        attachments: [calendarAttachment(current, { language, settings: clock.settings })],
         dedupeKey: `change-answered:${request.id}`,
       }, transaction)
     }
+    return current
   })
   return shapeAppointment(appointment, patient.userId, tz)
 })

@@ -7,6 +7,9 @@ import { Appointment, AppointmentChangeRequest, User } from '../../../db/models'
 /**
  * Books the patient's next appointment (staff). It replaces any open appointment still
  * ahead of him, and the patient gets an e-mail with the calendar file, in his language.
+ * The open ones are cancelled by a conditional update in the same transaction (still open
+ * when it runs, or 409 and nothing written), so an answer to one of their requests that
+ * comes after finds it withdrawn (409) instead of moving a cancelled appointment.
  */
 export default defineEventHandler(async (event) => {
   const { patient, user } = await authorizePatient(event, idParam(event), 'appointment.schedule')
@@ -17,16 +20,21 @@ export default defineEventHandler(async (event) => {
   if (startsAt <= clock.now) {
     throw createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { time: ['validation.schedule.pastTime'] } } })
   }
-  const patientUser = await User.findByPk(patient.userId)
   const sequelize = await useDb()
   const appointment = await sequelize.transaction(async (transaction) => {
+    const patientUser = await User.findByPk(patient.userId, { transaction })
     const replaced = await Appointment.findAll({
       where: { patientId: patient.id, status: { [Op.in]: [...OPEN_APPOINTMENT_STATUSES] }, startsAt: { [Op.gte]: startOfClinicDay(clock.today, tz) } },
       transaction,
     })
-    for (const old of replaced) {
-      await old.update({ status: 'cancelled' }, { transaction })
-      await AppointmentChangeRequest.update({ status: 'withdrawn' }, { where: { appointmentId: old.id, patientId: patient.id, status: 'open' }, transaction })
+    if (replaced.length) {
+      const ids = replaced.map(old => old.id)
+      const [cancelled] = await Appointment.update({ status: 'cancelled' }, {
+        where: { id: { [Op.in]: ids }, patientId: patient.id, status: { [Op.in]: [...OPEN_APPOINTMENT_STATUSES] } },
+        transaction,
+      })
+      if (cancelled !== ids.length) throw createError({ statusCode: 409, message: 'errors.schedule.appointmentChanged' })
+      await AppointmentChangeRequest.update({ status: 'withdrawn' }, { where: { appointmentId: { [Op.in]: ids }, patientId: patient.id, status: 'open' }, transaction })
     }
     const created = await Appointment.create({
       patientId: patient.id,

@@ -5,14 +5,18 @@ import { CareGrant, CircleInvitation, User } from '../../../../db/models'
 /**
  * Invites a caregiver by e-mail with the permissions the patient chose; staff may do it on
  * his behalf (the invitation, and later the grant, name who sent it). Sending again to the
- * same address replaces the earlier invitation.
+ * same address replaces the earlier invitation. The same requestId again (a retry, a double
+ * click) returns the invitation the first try stored, 200, with no second e-mail.
  */
 export default defineEventHandler(async (event) => {
   const { patient, user } = await authorizePatient(event, idParam(event), 'circle.manage')
   const input = await readValidatedBody(event, parseWith(circleInviteSchema))
 
-  const sequelize = await useDb()
-  const invitation = await sequelize.transaction(async (transaction) => {
+  const { invitation, created: isNew } = await inDraftTransaction(async (transaction) => {
+    if (input.requestId) {
+      const first = await CircleInvitation.findOne({ where: { patientId: patient.id, requestId: input.requestId }, transaction })
+      if (first) return { invitation: first, created: false }
+    }
     const account = await User.findOne({ where: { email: input.email }, transaction })
     if (account?.id === patient.userId) {
       throw createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { email: ['validation.circle.notYourself'] } } })
@@ -35,6 +39,7 @@ export default defineEventHandler(async (event) => {
       acceptedByUserId: null,
       grantId: null,
       closedAt: null,
+      requestId: input.requestId ?? null,
     }, { transaction })
     const token = await issueToken({ userId: null, purpose: 'circle-invite', data: { invitationId: created.id } }, transaction, now)
     await enqueueMail({
@@ -45,9 +50,9 @@ export default defineEventHandler(async (event) => {
       linkPath: `/circle/accept?token=${token}`,
     }, transaction)
     await recordAudit(event, { actor: user, patientId: patient.id, action: 'circle.invite', resource: `circle-invitation:${created.id}` }, transaction)
-    return created
+    return { invitation: created, created: true }
   })
 
-  setResponseStatus(event, 201)
+  setResponseStatus(event, isNew ? 201 : 200)
   return shapeInvitation((await CircleInvitation.findByPk(invitation.id, { include: [{ model: User, as: 'invitedBy' }] }))!)
 })
