@@ -1,6 +1,6 @@
 // The part of autocannon 8's programmatic API the load bench uses (the package ships no types).
 declare module 'autocannon' {
-  interface AutocannonRequest {
+  export interface AutocannonRequest {
     method?: string
     path?: string
     headers?: Record<string, string>
@@ -19,7 +19,7 @@ declare module 'autocannon' {
     requests?: AutocannonRequest[]
   }
   interface Histogram { average: number, mean: number, stddev: number, min: number, max: number, p50: number, p90: number, p97_5: number, p99: number }
-  interface AutocannonResult {
+  export interface AutocannonResult {
     duration: number
     requests: Histogram & { total: number, sent: number }
     latency: Histogram
