@@ -31,6 +31,9 @@ export default defineNuxtConfig({
     mailCatcherPort: 2525,
     outboxPollMs: 2000,
     outboxRetryBaseMs: 30_000,
+    // The write line (server/utils/write-queue.ts): how many writes may wait, and how long.
+    writeQueueMax: 200,
+    writeQueueWaitMs: 10_000,
     publicUrl: 'http://localhost:3000',
     seedDemo: false,
     seedDemoActivity: false,

@@ -6,6 +6,8 @@ import sqlite3 from 'sqlite3'
 import { SequelizeStorage, Umzug } from 'umzug'
 import { migrations } from '../db/migrations'
 import { initModels } from '../db/models'
+import type { WriteQueue } from './write-queue'
+import { createWriteQueue } from './write-queue'
 import { seedDemoActivity } from '../db/seed/activity'
 import { seedDemoClinic } from '../db/seed/demo'
 
@@ -46,25 +48,84 @@ function configureEachConnection(sequelize: Sequelize) {
 
 /*
  * SQLite has one writer at a time, and every transaction here takes the write lock at
- * BEGIN. Left to SQLite, the waiting happens in its busy handler on node-sqlite3's worker
- * threads, and measured on this server eight diaries sent at once stalled until the busy
- * timeout and seven of them failed. So this process's managed transactions
- * (sequelize.transaction(callback)) wait their turn in JavaScript, one after another; one
- * started inside another's callback runs at once, as before. Queries inside a transaction
- * pass it (see getSettings), so none waits on the shared connection.
+ * BEGIN. Left to SQLite, a writer that finds the lock taken waits in the busy handler on
+ * one of libuv's four pool threads; four such waiters take every thread, and the
+ * transaction that holds the lock cannot run its next statement until they time out
+ * (measured: see "The write path" in DEVELOPERS.md). So every write of this process waits
+ * its turn in JavaScript instead, in one bounded line with a deadline (write-queue.ts):
+ *
+ * - a managed transaction (sequelize.transaction(callback)) runs when its turn comes; one
+ *   started inside another's callback becomes a savepoint of it, on its connection;
+ * - a statement made while a transaction's callback runs, without a transaction of its
+ *   own, runs inside that transaction (an audit line, a settings read), never beside it;
+ * - a write outside any transaction (Model.create, update, destroy, a raw INSERT) waits
+ *   its turn in the same line and runs alone;
+ * - reads outside a transaction do not wait: in WAL mode they run beside the writer.
+ *
+ * A full line or a passed deadline rejects with a 503 (errors.busy) before anything is
+ * written; server/plugins/04.write-busy.ts adds the Retry-After header.
  */
-function queueTransactions(sequelize: Sequelize) {
-  const inside = new AsyncLocalStorage<true>()
+interface Turn {
+  /** The transaction whose callback is running, or null for a lone write. */
+  transaction: Transaction | null
+  /** Whether the job still holds the line (false once it has finished). */
+  holding: boolean
+}
+
+const WRITE_STATEMENT = /^\s*(INSERT|UPDATE|DELETE|REPLACE|CREATE|DROP|ALTER|VACUUM|REINDEX|PRAGMA\s+\w+\s*=)/i
+
+export function isWriteStatement(sql: unknown): boolean {
+  const text = typeof sql === 'string' ? sql : (sql as { query?: unknown } | null)?.query
+  return typeof text === 'string' && WRITE_STATEMENT.test(text)
+}
+
+const turns = new AsyncLocalStorage<Turn>()
+let writeQueue: WriteQueue | undefined
+
+/** The line this process's writes wait in (undefined before the first connection). */
+export function useWriteQueue(): WriteQueue | undefined {
+  return writeQueue
+}
+
+function queueWrites(sequelize: Sequelize, queue: WriteQueue) {
   const begin = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>
-  let tail: Promise<unknown> = Promise.resolve()
   sequelize.transaction = ((...args: unknown[]) => {
-    const managed = args.some(arg => typeof arg === 'function')
-    if (!managed || inside.getStore()) return begin(...args)
-    const run = () => inside.run(true, () => begin(...args))
-    const result = tail.then(run, run)
-    tail = result.catch(() => undefined)
-    return result
+    const callback = args.find(arg => typeof arg === 'function') as ((t: Transaction) => Promise<unknown>) | undefined
+    // Unmanaged transactions (no callback) are not used here; they would bypass the line.
+    if (!callback) return begin(...args)
+    const options = ((args.length > 1 ? args[0] : undefined) ?? {}) as { transaction?: Transaction | null }
+    const turn = turns.getStore()
+    if (turn?.holding && turn.transaction && !turn.transaction.finished) {
+      return begin({ ...options, transaction: options.transaction ?? turn.transaction }, callback)
+    }
+    return queue.run(async () => {
+      const mine: Turn = { transaction: null, holding: true }
+      try {
+        return await begin(options, (transaction: Transaction) => {
+          mine.transaction = transaction
+          return turns.run(mine, () => callback(transaction))
+        })
+      }
+      finally {
+        mine.holding = false
+      }
+    })
   }) as Sequelize['transaction']
+
+  const query = sequelize.query.bind(sequelize) as (sql: unknown, options?: Record<string, unknown>) => Promise<unknown>
+  sequelize.query = ((sql: unknown, options?: Record<string, unknown>) => {
+    const turn = turns.getStore()
+    if (turn?.holding && turn.transaction && !turn.transaction.finished && options?.transaction === undefined) {
+      return query(sql, { ...options, transaction: turn.transaction })
+    }
+    if (options?.transaction || turn?.holding || !isWriteStatement(sql)) return query(sql, options)
+    return queue.run(() => {
+      const mine: Turn = { transaction: null, holding: true }
+      return turns.run(mine, () => query(sql, options)).finally(() => {
+        mine.holding = false
+      })
+    })
+  }) as Sequelize['query']
 }
 
 async function connect(): Promise<Sequelize> {
@@ -81,7 +142,8 @@ async function connect(): Promise<Sequelize> {
     retry: { max: 5, match: [/SQLITE_BUSY/] },
   })
   configureEachConnection(sequelize)
-  queueTransactions(sequelize)
+  writeQueue = createWriteQueue({ max: Number(config.writeQueueMax ?? 200), waitMs: Number(config.writeQueueWaitMs ?? 10_000) })
+  queueWrites(sequelize, writeQueue)
   await sequelize.query('PRAGMA journal_mode = WAL;')
   initModels(sequelize)
   await migrate(sequelize)
