@@ -1,10 +1,14 @@
 import { triageActionSchema } from '../../../../shared/schemas/triage'
 import type { TriageEventType } from '../../../../shared/schemas/triage'
+import { Op } from 'sequelize'
 import { DiaryEntry, TriageEvent, TriageItem } from '../../../db/models'
 
 /**
  * Records what a nurse or clinician did on an item (one body shape per action). Every
  * action lands in the item's timeline and, through the access policy, the audit trail.
+ * A change of the item is one conditional UPDATE (… WHERE status != 'closed') inside the
+ * transaction: of two nurses closing one item at once, the second changes nothing and
+ * gets 409 (errors.triageClosed), even if another process wrote in between.
  */
 export default defineEventHandler(async (event) => {
   const staff = await requireRole(event, ['nurse', 'clinician'])
@@ -21,36 +25,42 @@ export default defineEventHandler(async (event) => {
     if (item.status === 'closed' && action.type !== 'note' && action.type !== 'note-read') throw createError({ statusCode: 409, message: 'errors.triageClosed' })
     const log = (type: TriageEventType, data: Record<string, unknown> = {}) =>
       TriageEvent.create({ itemId: item.id, actorUserId: user.id, type, note: 'note' in action ? action.note ?? null : null, data, at: now }, { transaction })
+    type ItemChange = Partial<Pick<TriageItem, 'status' | 'assigneeUserId' | 'escalatedAt' | 'disposition' | 'closedAt'>>
+    const change = async (values: ItemChange, where: Record<string, unknown> = {}) => {
+      const [changed] = await TriageItem.update(values, { where: { id: item.id, status: { [Op.ne]: 'closed' }, ...where }, transaction })
+      if (changed !== 1) throw createError({ statusCode: 409, message: 'errors.triageClosed' })
+      item.set(values)
+    }
     const startWork = item.status === 'new' || item.status === 'waiting' ? { status: 'in-progress' as const } : {}
 
     switch (action.type) {
       case 'claim':
-        await item.update({ assigneeUserId: user.id, ...startWork }, { transaction })
+        await change({ assigneeUserId: user.id, ...startWork })
         await log('claimed')
         break
       case 'note':
         await log('note')
         break
       case 'call':
-        await item.update({ ...startWork, assigneeUserId: item.assigneeUserId ?? user.id }, { transaction })
+        await change({ ...startWork, assigneeUserId: item.assigneeUserId ?? user.id })
         await log(action.reached ? 'call-reached' : 'call-attempted')
         break
       case 'message':
-        await item.update({ ...startWork, assigneeUserId: item.assigneeUserId ?? user.id }, { transaction })
+        await change({ ...startWork, assigneeUserId: item.assigneeUserId ?? user.id })
         await log('message-sent')
         break
       case 'waiting':
-        await item.update({ status: 'waiting', assigneeUserId: item.assigneeUserId ?? user.id }, { transaction })
+        await change({ status: 'waiting', assigneeUserId: item.assigneeUserId ?? user.id })
         await log('waiting')
         break
       case 'escalate': {
-        await item.update({ ...startWork, escalatedAt: item.escalatedAt ?? now }, { transaction })
+        await change({ ...startWork, escalatedAt: item.escalatedAt ?? now })
         await log('escalated', { automatic: false })
         await alertStaff(item, 'triageEscalation', (await getSettings(transaction)).clinicianAlertList, transaction, `manual-${now.getTime()}`)
         break
       }
       case 'disposition':
-        await item.update({ disposition: action.disposition, ...startWork }, { transaction })
+        await change({ disposition: action.disposition, ...startWork })
         await log('disposition-set', { disposition: action.disposition })
         break
       case 'note-read': {
@@ -62,7 +72,7 @@ export default defineEventHandler(async (event) => {
       }
       case 'close':
         if (!item.disposition) throw createError({ statusCode: 400, message: 'errors.dispositionRequired', data: { fieldErrors: { disposition: ['validation.triage.disposition'] } } })
-        await item.update({ status: 'closed', closedAt: now }, { transaction })
+        await change({ status: 'closed', closedAt: now }, { disposition: { [Op.ne]: null } })
         await log('closed', { disposition: item.disposition })
         break
     }
