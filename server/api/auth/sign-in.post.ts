@@ -10,9 +10,10 @@ export default defineEventHandler(async (event) => {
   const { email, password } = body.data
   await useDb()
 
+  // The attempt counts as a failure until the password proves right (sign-in-limit.ts).
   const key = accountKey(email)
-  const wait = await secondsLocked(key)
-  if (wait > 0) {
+  if (!await takeAttempt(key)) {
+    const wait = Math.max(1, await secondsLocked(key))
     setResponseHeader(event, 'Retry-After', wait)
     throw createError({ statusCode: 429, message: 'errors.tooManyAttempts', data: { retryAfter: wait } })
   }
@@ -21,7 +22,6 @@ export default defineEventHandler(async (event) => {
   decoyHash ??= hashPassword(crypto.randomUUID())
   const valid = await verifyPassword(user?.passwordHash ?? await decoyHash, password)
   if (!user || !user.active || !user.passwordHash || !valid) {
-    await recordFailure(key)
     throw createError({ statusCode: 401, message: 'errors.signInFailed' })
   }
 
