@@ -1,6 +1,6 @@
 import type { ChildProcess } from 'node:child_process'
 import { spawn } from 'node:child_process'
-import { mkdtempSync, rmSync } from 'node:fs'
+import { chownSync, mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { freePort } from './ports'
@@ -11,6 +11,10 @@ export interface RunningApp {
   url: string
   dbPath: string
   dataDir: string
+  /** The server's process id. */
+  pid: number
+  /** Kills the server at once (SIGKILL, like a power cut) and waits for it to go; the data stays. */
+  crash: () => Promise<void>
   /** Stops the server; its data folder is removed unless keepData (or it was given). */
   stop: (options?: { keepData?: boolean }) => Promise<void>
 }
@@ -19,13 +23,17 @@ export interface RunningApp {
  * Starts the built server (.output) with a fresh SQLite file, the demo clinic seeded and
  * e-mail going to the given SMTP URL (or to the app's own mail catcher when none is given).
  */
-export async function startApp(options: { smtpUrl?: string, env?: Record<string, string>, dataDir?: string } = {}): Promise<RunningApp> {
+export async function startApp(options: { smtpUrl?: string, env?: Record<string, string>, dataDir?: string, user?: { uid: number, gid: number } } = {}): Promise<RunningApp> {
   const port = await freePort()
   const dataDir = options.dataDir ?? mkdtempSync(join(tmpdir(), 'tidewell-test-'))
   const dbPath = join(dataDir, 'tidewell.sqlite')
   const url = `http://127.0.0.1:${port}`
+  // With a user (tests that need file permissions to hold when the tests run as root),
+  // the server runs as that user and owns its data folder.
+  if (options.user) chownSync(dataDir, options.user.uid, options.user.gid)
   const child: ChildProcess = spawn(process.execPath, [`${root}.output/server/index.mjs`], {
     cwd: root,
+    ...options.user,
     stdio: ['ignore', 'pipe', 'pipe'],
     env: {
       ...process.env,
@@ -63,8 +71,15 @@ export async function startApp(options: { smtpUrl?: string, env?: Record<string,
     url,
     dbPath,
     dataDir,
+    pid: child.pid!,
+    crash: async () => {
+      if (child.exitCode !== null || child.signalCode !== null) return
+      const exited = new Promise(done => child.once('exit', done))
+      child.kill('SIGKILL')
+      await exited
+    },
     stop: async ({ keepData = false } = {}) => {
-      if (child.exitCode === null) {
+      if (child.exitCode === null && child.signalCode === null) {
         const exited = new Promise(done => child.once('exit', done))
         child.kill('SIGTERM')
         await exited
