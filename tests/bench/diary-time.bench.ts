@@ -74,7 +74,15 @@ class Reader {
   async readStep() {
     const texts = this.returning
       ? await this.page.locator('main').locator('legend, label.tw-label, h2, h3, dd, [role="alert"]').allInnerTexts()
-      : [await this.page.locator('main').innerText()]
+      : [await this.page.locator('main').evaluate(main => {
+          // Words only for screen readers (class sr-only, such as "Change: Pain") are not shown, so he does not read them.
+          const hidden = [...main.querySelectorAll<HTMLElement>('.sr-only')]
+          const saved = hidden.map(element => element.style.display)
+          hidden.forEach((element) => { element.style.display = 'none' })
+          const text = main.innerText
+          hidden.forEach((element, index) => { element.style.display = saved[index]! })
+          return text
+        })]
     const words = texts.join(' ').split(/\s+/).filter(Boolean).length
     await this.spend(Math.max(0, words - this.wordsRead) / MODEL.wordsPerMinute * 60_000)
     this.wordsRead = Math.max(words, this.wordsRead)
@@ -141,26 +149,26 @@ const nothingToReport: Scenario = reader => walk(reader, {})
 /** Several symptoms, none of them an emergency: the kind of week that asks the most. */
 const severalSymptoms: Scenario = reader => walk(reader, {
   2: async () => {
-    await reader.type('On an average day, how many hot flushes did you have?', '5')
+    await reader.type('How many hot flushes on an average day?', '5')
     await reader.answer('How strong was the worst one?', 'Moderate')
-    await reader.answer('How much did they get in the way?', 'They got in the way of my usual activities, such as shopping, cooking or going out')
+    await reader.answer('How much did they get in the way?', 'They got in the way of my usual activities (shopping, cooking, going out)')
   },
   3: async () => {
     await reader.answer('What was your worst pain this past week?', '5')
-    await reader.tick('Where was the pain? Tick all that apply.', 'Hips')
-    await reader.answer('Is the pain new, or worse than before?', 'Yes')
+    await reader.tick('Where was the pain?', 'Hips')
+    await reader.answer('Is the pain new or worse?', 'Yes')
   },
-  5: () => reader.answer('Have you had new swelling in your legs or ankles?', 'Yes'),
+  5: () => reader.answer('Are your legs or ankles newly swollen?', 'Yes'),
   7: async () => {
-    await reader.answer('Have your bowels changed this past week (looser, more often, harder, or not moving)?', 'Yes')
+    await reader.answer('Have your bowels changed (looser, more often, harder, or not moving)?', 'Yes')
     await reader.readStep()
     await reader.type('How many more bowel movements a day than usual for you?', '2')
-    await reader.answer('Have you had a fall this past week?', 'Yes')
+    await reader.answer('Any falls?', 'Yes')
     await reader.readStep()
     await reader.answer('Did you hit your head, or hurt yourself?', 'Yes')
   },
   8: () => reader.answer('Feeling down, depressed or hopeless', 'Several days'),
-  10: () => reader.type('Is there anything else you want the clinic to know?', 'I tripped on the back step on Sunday and bruised my knee.'),
+  10: () => reader.type('Anything else the clinic should know?', 'I tripped on the back step on Sunday and bruised my knee.'),
 })
 
 /** Waits until Vue has taken over the server-rendered page (a tap before that would be lost). */

@@ -32,13 +32,13 @@ async function goTo(page: Page, path: string) {
 /** Sends a quiet week through the diary form, leaving the monthly urinary questions for later. */
 async function sendQuietDiary(page: Page) {
   await goTo(page, '/diary/new')
-  await page.getByText('You are filling in the diary for Howard Tillinghast.').waitFor()
+  await page.getByText('You are answering for Howard Tillinghast, as best you can.').waitFor()
   for (let step = 1; step <= 10; step++) {
     await page.getByText(new RegExp(`^Step ${step} of 11:`)).waitFor()
     // The right-now questions start unanswered: "None of these is happening" answers them no.
     if (step === 1) await page.getByRole('button', { name: 'None of these is happening', exact: true }).click()
     if (step === 2) {
-      await page.getByLabel('On an average day, how many hot flushes did you have?').fill('2')
+      await page.getByLabel('How many hot flushes on an average day?').fill('2')
       await page.getByRole('group', { name: 'How strong was the worst one?' }).getByRole('radio', { name: 'Mild', exact: true }).check()
       await page.getByRole('group', { name: 'How much did they get in the way?' }).getByRole('radio', { name: /^Not at all/ }).check()
     }

@@ -64,7 +64,7 @@ describe('the weekly diary', () => {
     await atStep(page, 1, 'Right-now check')
     const forward = page.getByRole('button', { name: 'Next', exact: true })
     await expect(forward.getAttribute('aria-disabled')).resolves.toBe('true')
-    await page.getByText('Answer every question above first, or choose “None of these is happening”. 11 questions still have no answer.').waitFor()
+    await page.getByText('11 questions above still have no answer.').waitFor()
     await expect(question(page, 'Is it hard to breathe?').getByRole('radio', { name: 'No', exact: true }).isChecked()).resolves.toBe(false)
     // Playwright will not click an aria-disabled button; a tap does nothing but lead to the first open question.
     await forward.click({ force: true })
@@ -72,13 +72,13 @@ describe('the weekly diary', () => {
     await expect.poll(() => page.getByText(`Step 1 of ${STEPS}: Right-now check`).count(), { timeout: 10_000 }).toBe(1)
     await expect.poll(() => page.getByText(`Step 2 of ${STEPS}:`).count()).toBe(0)
     await choose(page, 'Is it hard to breathe?', 'No')
-    await page.getByText('10 questions still have no answer.', { exact: false }).waitFor()
+    await page.getByText('10 questions above still have no answer.', { exact: true }).waitFor()
     await expect(forward.getAttribute('aria-disabled')).resolves.toBe('true')
     await noneOfThese(page)
 
     // Hot flushes: a bad number is refused at the field and the step does not move on.
     await atStep(page, 2, 'Hot flushes')
-    const perDay = page.getByLabel('On an average day, how many hot flushes did you have?')
+    const perDay = page.getByLabel('How many hot flushes on an average day?')
     await perDay.fill('lots')
     await next(page)
     await page.getByText('Enter a whole number from 0 to 50.').waitFor()
@@ -110,19 +110,19 @@ describe('the weekly diary', () => {
     }
 
     await atStep(page, 10, 'Anything else')
-    await page.getByLabel('Is there anything else you want the clinic to know?').fill('Sleeping a little better this week.')
+    await page.getByLabel('Anything else the clinic should know?').fill('Sleeping a little better this week.')
     await page.getByText('35 of 2,000 characters').waitFor()
     // The note says when it is read: the clinic's routine response time when /api/clinic gives
     // it (default 3 working days, server/utils/settings.ts), otherwise "a few working days".
     const clinic = await (await fetch(new URL('/api/clinic', inject('appUrl')))).json() as { routineResponseWorkingDays?: number }
     await page.getByText(clinic.routineResponseWorkingDays === undefined
-      ? 'A nurse from the care team reads every note within a few working days.'
-      : `A nurse from the care team reads every note within ${clinic.routineResponseWorkingDays} working days.`, { exact: false }).waitFor()
-    await page.getByText('A note is not the way to tell us about danger signs.', { exact: false }).waitFor()
+      ? 'A nurse reads every note within a few working days.'
+      : `A nurse reads every note within ${clinic.routineResponseWorkingDays} working days.`, { exact: false }).waitFor()
+    await page.getByText('Danger signs do not go in a note: answer them in the right-now check, or call', { exact: false }).waitFor()
     await next(page)
 
     await atStep(page, 11, 'Check your answers')
-    await page.getByText('They got in the way of my usual activities, such as shopping, cooking or going out').waitFor()
+    await page.getByText('They got in the way of my usual activities (shopping, cooking, going out)').waitFor()
     await page.getByRole('button', { name: 'Send my diary' }).click()
 
     await page.waitForURL(u => /^\/diary\/\d+$/.test(u.pathname))
@@ -168,7 +168,7 @@ describe('the weekly diary', () => {
     const screen = page.getByRole('region', { name: 'Get help now' })
     await expect(screen.textContent()).resolves.toContain('Say that you have prostate cancer and new weakness in your legs or arms.')
     // Still on the right-now check, with the instructions above the form.
-    await expect.poll(() => page.getByLabel('On an average day, how many hot flushes did you have?').count(), { timeout: 10_000 }).toBe(0)
+    await expect.poll(() => page.getByLabel('How many hot flushes on an average day?').count(), { timeout: 10_000 }).toBe(0)
     const alertTop = (await alert.boundingBox())!.y
     const formTop = (await page.locator('#diary-form').boundingBox())!.y
     expect(alertTop).toBeLessThan(formTop)
@@ -245,7 +245,7 @@ describe('the weekly diary', () => {
     await expect(worst.getByRole('radio', { name: '4', exact: true }).isChecked()).resolves.toBe(true)
     await page.getByRole('button', { name: 'Back to checking my answers' }).click()
     await atStep(page, 11, 'Check your answers')
-    await page.getByText('4 out of 10').waitFor()
+    await page.getByText('4 of 10', { exact: true }).waitFor()
     await page.close()
   })
 
@@ -255,7 +255,7 @@ describe('the weekly diary', () => {
     await atStep(page, 1, 'Right-now check')
     await noneOfThese(page)
     await atStep(page, 2, 'Hot flushes')
-    await page.getByLabel('On an average day, how many hot flushes did you have?').fill('6')
+    await page.getByLabel('How many hot flushes on an average day?').fill('6')
     await choose(page, 'How strong was the worst one?', 'Severe')
     await next(page)
     await atStep(page, 3, 'Pain')
@@ -267,7 +267,7 @@ describe('the weekly diary', () => {
     await expect(question(page, 'What was your worst pain this past week?').getByRole('radio', { name: '3', exact: true }).isChecked()).resolves.toBe(true)
     await page.getByRole('button', { name: 'Back' }).click()
     await atStep(page, 2, 'Hot flushes')
-    await expect(page.getByLabel('On an average day, how many hot flushes did you have?').inputValue()).resolves.toBe('6')
+    await expect(page.getByLabel('How many hot flushes on an average day?').inputValue()).resolves.toBe('6')
     await expect(question(page, 'How strong was the worst one?').getByRole('radio', { name: 'Severe', exact: true }).isChecked()).resolves.toBe(true)
     await page.close()
   })
@@ -323,7 +323,7 @@ describe('the weekly diary', () => {
       await next(page)
     }
     await atStep(page, 7, 'Other changes')
-    const fall = 'Have you had a fall this past week?'
+    const fall = 'Any falls?'
     const hitHead = 'Did you hit your head, or hurt yourself?'
     await expect(question(page, fall).getByRole('radio', { name: 'No', exact: true }).isChecked()).resolves.toBe(true)
     await expect.poll(() => question(page, hitHead).count()).toBe(0)
@@ -335,7 +335,7 @@ describe('the weekly diary', () => {
     await expect(question(page, hitHead).getByRole('radio', { name: 'No', exact: true }).isChecked()).resolves.toBe(true)
 
     // A temperature is optional, and checked against its scale.
-    await choose(page, 'Have you had a fever, chills, or felt hot and shivery this past week?', 'Yes')
+    await choose(page, 'Any fever or chills?', 'Yes')
     await choose(page, 'Which scale does your thermometer show?', '°C')
     await page.getByLabel('Your highest temperature (optional)').fill('83')
     await next(page)
