@@ -29,22 +29,51 @@ export async function migrate(sequelize: Sequelize) {
 type Connection = sqlite3.Database & { tidewellConfigured?: boolean }
 
 /**
- * Sequelize opens one SQLite connection per transaction and turns foreign keys on for
- * each, but has no hook for other per-connection settings on this dialect: wrap
- * getConnection to give every connection a busy timeout.
+ * Sequelize opens one SQLite connection per transaction (and closes it after), turning
+ * foreign keys on for each, but has no hook for other per-connection settings on this
+ * dialect: wrap getConnection to give every connection a busy timeout. Since transactions
+ * of this process run one at a time (queueWrites), those that take their turn in the
+ * write line share one writer connection, kept open: a new connection would open the
+ * file and read the schema again for every transaction. A connection Sequelize gives up
+ * on (a failed COMMIT or ROLLBACK leaves it in an unknown state) is closed and the next
+ * transaction opens a fresh one.
  */
 function configureEachConnection(sequelize: Sequelize) {
-  const manager = sequelize.connectionManager as unknown as { getConnection: (options?: object) => Promise<Connection> }
+  const manager = sequelize.connectionManager as unknown as {
+    getConnection: (options?: { uuid?: string }) => Promise<Connection>
+    releaseConnection: (connection: Connection, force?: boolean) => unknown
+    destroyConnection: (connection: Connection) => Promise<unknown>
+    connections: Record<string, Connection>
+  }
   const open = manager.getConnection.bind(manager)
-  manager.getConnection = async (options) => {
-    const connection = await open(options)
+  const release = manager.releaseConnection.bind(manager)
+  const destroy = manager.destroyConnection.bind(manager)
+  let writer: Connection | undefined
+  const configured = (connection: Connection) => {
     if (!connection.tidewellConfigured) {
       connection.configure('busyTimeout', 5000)
       connection.tidewellConfigured = true
     }
     return connection
   }
+  manager.getConnection = async (options) => {
+    if (options?.uuid && options.uuid !== 'default' && turns.getStore()?.writer) {
+      writer ??= configured(await open({ ...options, uuid: WRITER }))
+      return writer
+    }
+    return configured(await open(options))
+  }
+  manager.releaseConnection = (connection, force) => (connection === writer ? undefined : release(connection, force))
+  manager.destroyConnection = async (connection) => {
+    if (connection !== writer) return destroy(connection)
+    writer = undefined
+    Reflect.deleteProperty(manager.connections, WRITER)
+    await new Promise(done => connection.close(() => done(undefined)))
+  }
 }
+
+/** The key of the shared writer connection in Sequelize's connection map. */
+const WRITER = 'tidewell-writer'
 
 /*
  * SQLite has one writer at a time, and every transaction here takes the write lock at
@@ -59,7 +88,9 @@ function configureEachConnection(sequelize: Sequelize) {
  * - a statement made while a transaction's callback runs, without a transaction of its
  *   own, runs inside that transaction (an audit line, a settings read), never beside it;
  * - a write outside any transaction (Model.create, update, destroy, a raw INSERT) waits
- *   its turn in the same line and runs alone;
+ *   its turn in the same line and runs alone, ahead of the waiting transactions (it is
+ *   one statement; a nurse's read that writes an audit line should not wait for fifty);
+ * - the transactions that take their turn share one writer connection, kept open;
  * - reads outside a transaction do not wait: in WAL mode they run beside the writer.
  *
  * A full line or a passed deadline rejects with a 503 (errors.busy) before anything is
@@ -70,6 +101,8 @@ interface Turn {
   transaction: Transaction | null
   /** Whether the job still holds the line (false once it has finished). */
   holding: boolean
+  /** A transaction taking its turn: it runs on the shared writer connection. */
+  writer?: boolean
 }
 
 const WRITE_STATEMENT = /^\s*(INSERT|UPDATE|DELETE|REPLACE|CREATE|DROP|ALTER|VACUUM|REINDEX|PRAGMA\s+\w+\s*=)/i
@@ -99,12 +132,12 @@ function queueWrites(sequelize: Sequelize, queue: WriteQueue) {
       return begin({ ...options, transaction: options.transaction ?? turn.transaction }, callback)
     }
     return queue.run(async () => {
-      const mine: Turn = { transaction: null, holding: true }
+      const mine: Turn = { transaction: null, holding: true, writer: true }
       try {
-        return await begin(options, (transaction: Transaction) => {
+        return await turns.run(mine, () => begin(options, (transaction: Transaction) => {
           mine.transaction = transaction
-          return turns.run(mine, () => callback(transaction))
-        })
+          return callback(transaction)
+        }))
       }
       finally {
         mine.holding = false
@@ -124,7 +157,7 @@ function queueWrites(sequelize: Sequelize, queue: WriteQueue) {
       return turns.run(mine, () => query(sql, options)).finally(() => {
         mine.holding = false
       })
-    })
+    }, { ahead: true })
   }) as Sequelize['query']
 }
 

@@ -5,7 +5,10 @@ import { createError } from 'h3'
  * DEVELOPERS.md). One job runs at a time, in the order they came. At most `max` jobs wait
  * behind the running one; a job that would be one more, or that has waited `waitMs`
  * without starting, is refused at once with a 503 (errors.busy) that says when to try
- * again. A refused job never starts, so nothing of it is written.
+ * again. A refused job never starts, so nothing of it is written. A lone statement (an
+ * audit line of a read, a one-row update) may go ahead of the waiting transactions
+ * (`{ ahead: true }`): it takes a moment, and a nurse's read that writes its audit line
+ * should not wait behind fifty diaries. Lone statements keep their order among themselves.
  */
 export interface WriteQueueOptions {
   /** How many jobs may wait behind the running one. */
@@ -15,7 +18,7 @@ export interface WriteQueueOptions {
 }
 
 export interface WriteQueue {
-  run: <T>(job: () => Promise<T>) => Promise<T>
+  run: <T>(job: () => Promise<T>, options?: { ahead?: boolean }) => Promise<T>
   /** For the readiness check and the tests: whether a job runs and how many wait. */
   state: () => { running: boolean, waiting: number, refused: number }
 }
@@ -39,6 +42,8 @@ export function createWriteQueue(options: WriteQueueOptions): WriteQueue {
   const max = Math.max(0, Math.floor(options.max))
   const waitMs = Math.max(1, Math.floor(options.waitMs))
   const waiting: Waiter[] = []
+  // How many of the waiting, at the front, are lone statements that went ahead.
+  let aheadCount = 0
   let running = false
   let refused = 0
   // A running mean of how long a job holds the line, for Retry-After.
@@ -51,6 +56,7 @@ export function createWriteQueue(options: WriteQueueOptions): WriteQueue {
     if (running) return
     const waiter = waiting.shift()
     if (!waiter) return
+    if (aheadCount > 0) aheadCount--
     clearTimeout(waiter.timer)
     running = true
     const started = performance.now()
@@ -61,7 +67,7 @@ export function createWriteQueue(options: WriteQueueOptions): WriteQueue {
     })
   }
 
-  const run = <T>(job: () => Promise<T>): Promise<T> => {
+  const run = <T>(job: () => Promise<T>, runOptions: { ahead?: boolean } = {}): Promise<T> => {
     if (running && waiting.length >= max) {
       refused++
       return Promise.reject(writeQueueBusy(retryAfter()))
@@ -77,11 +83,13 @@ export function createWriteQueue(options: WriteQueueOptions): WriteQueue {
           const at = waiting.indexOf(waiter)
           if (at < 0) return
           waiting.splice(at, 1)
+          if (at < aheadCount) aheadCount--
           refused++
           reject(writeQueueBusy(retryAfter()))
         }, waitMs),
       }
-      waiting.push(waiter)
+      if (runOptions.ahead) waiting.splice(aheadCount++, 0, waiter)
+      else waiting.push(waiter)
       next()
     })
   }

@@ -62,6 +62,25 @@ describe('write queue', () => {
     expect(late.state.started).toBe(false)
   })
 
+  it('lone statements go ahead of the waiting transactions, in their own order', async () => {
+    const queue = createWriteQueue({ max: 10, waitMs: 10_000 })
+    const first = gate()
+    const order: string[] = []
+    const job = (name: string) => async () => {
+      order.push(name)
+    }
+    const all = [
+      queue.run(first.job),
+      queue.run(job('tx1')),
+      queue.run(job('tx2')),
+      queue.run(job('lone1'), { ahead: true }),
+      queue.run(job('lone2'), { ahead: true }),
+    ]
+    first.release()
+    await Promise.all(all)
+    expect(order).toEqual(['lone1', 'lone2', 'tx1', 'tx2'])
+  })
+
   it('a failing job rejects its own caller only', async () => {
     const queue = createWriteQueue({ max: 10, waitMs: 10_000 })
     const results = await Promise.all([
