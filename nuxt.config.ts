@@ -10,6 +10,11 @@ export default defineNuxtConfig({
     'nuxt-auth-utils',
   ],
   devtools: { enabled: false },
+  experimental: {
+    // A link fetches its page's code when it is touched or focused, not as soon as it is on
+    // screen: on a phone that would download and run most of the app after the first page.
+    defaults: { nuxtLink: { prefetchOn: { visibility: false, interaction: true } } },
+  },
   telemetry: false,
   css: [
     '@fontsource/atkinson-hyperlegible/400.css',
@@ -45,6 +50,10 @@ export default defineNuxtConfig({
     },
   },
   nitro: {
+    // Precompress everything in .output/public at build time (.gz and .br beside each file);
+    // Nitro then serves the one the browser accepts. Page HTML is rendered per request and
+    // goes out uncompressed.
+    compressPublicAssets: { gzip: true, brotli: true },
     experimental: { tasks: true },
     scheduledTasks: {
       '*/5 * * * *': ['outbox:send', 'triage:escalate'],
