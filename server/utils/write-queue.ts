@@ -1,3 +1,4 @@
+import { AsyncResource } from 'node:async_hooks'
 import { createError } from 'h3'
 
 /**
@@ -72,10 +73,13 @@ export function createWriteQueue(options: WriteQueueOptions): WriteQueue {
       refused++
       return Promise.reject(writeQueueBusy(retryAfter()))
     }
+    // The job runs in its caller's async context (its request's), not in that of the job
+    // before it, which is where its turn comes.
+    const own = AsyncResource.bind(job)
     return new Promise<T>((resolve, reject) => {
       const waiter: Waiter = {
         start: () => {
-          const done = Promise.resolve().then(job)
+          const done = Promise.resolve().then(own)
           done.then(resolve, reject)
           return done.then(() => undefined, () => undefined)
         },

@@ -1,3 +1,4 @@
+import { AsyncLocalStorage } from 'node:async_hooks'
 import { describe, expect, it } from 'vitest'
 import { createWriteQueue, isWriteQueueBusy } from '../../server/utils/write-queue'
 
@@ -79,6 +80,17 @@ describe('write queue', () => {
     first.release()
     await Promise.all(all)
     expect(order).toEqual(['lone1', 'lone2', 'tx1', 'tx2'])
+  })
+
+  it('a job that waited runs in its caller\'s async context, not in the one before it', async () => {
+    const queue = createWriteQueue({ max: 10, waitMs: 10_000 })
+    const request = new AsyncLocalStorage<string>()
+    const first = gate()
+    const running = request.run('first', () => queue.run(first.job))
+    const seen = request.run('second', () => queue.run(async () => request.getStore()))
+    first.release()
+    await running
+    expect(await seen).toBe('second')
   })
 
   it('a failing job rejects its own caller only', async () => {
