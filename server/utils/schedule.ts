@@ -7,7 +7,7 @@ import { flareWatch, localDate, scheduleStatus, suggestSite, zonedDateTimeToUtc 
 import { OPEN_APPOINTMENT_STATUSES } from '../../shared/scheduling/types'
 import type { AppointmentView, ScheduleView } from '../../shared/types/schedule'
 import type { Language } from '../../shared/types/roles'
-import { Appointment, AppointmentChangeRequest, Injection, PatientRegimen, Regimen, User } from '../db/models'
+import { Appointment, AppointmentChangeRequest, Injection, PatientRegimen, Regimen } from '../db/models'
 import type { PatientAction, PatientAccess } from './access'
 import type { ClinicSettings } from './settings'
 
@@ -46,30 +46,31 @@ export async function currentRegimenOf(patientId: number, transaction?: Transact
 /**
  * The patient's next open appointment: the first one from the start of today (clinic
  * time), so an appointment earlier today still shows until the injection is recorded.
+ * withChangeRequests reads his requests for it in the same query (for shapeAppointment).
  */
-export async function nextAppointmentOf(patientId: number, clock: ScheduleClock, transaction?: Transaction) {
+export async function nextAppointmentOf(patientId: number, clock: ScheduleClock, transaction?: Transaction, options: { withChangeRequests?: boolean } = {}) {
   return Appointment.findOne({
     where: {
       patientId,
       status: { [Op.in]: [...OPEN_APPOINTMENT_STATUSES] },
       startsAt: { [Op.gte]: startOfClinicDay(clock.today, clock.settings.timeZone) },
     },
+    include: options.withChangeRequests
+      ? [{ model: AppointmentChangeRequest, as: 'changeRequests', where: { patientId }, required: false }]
+      : [],
     order: [['startsAt', 'ASC'], ['id', 'ASC']],
     transaction,
   })
 }
 
-/** Where the patient stands on the clock's day, without the appointment. */
-export async function computeSchedule(patientId: number, clock: ScheduleClock, transaction?: Transaction) {
-  const [plan, injections] = await Promise.all([
-    currentRegimenOf(patientId, transaction),
-    Injection.findAll({
-      where: { patientId },
-      include: [{ model: Regimen, as: 'regimen' }],
-      order: [['givenAt', 'ASC'], ['id', 'ASC']],
-      transaction,
-    }),
-  ])
+/** What the standing is made from: the current plan and every injection given, oldest first. */
+interface StandingFacts {
+  plan: PatientRegimen | null
+  injections: Injection[]
+}
+
+/** Where one patient stands on the clock's day, from his facts (no I/O). */
+function standingOf({ plan, injections }: StandingFacts, clock: ScheduleClock) {
   const first = injections[0]
   const last = injections.at(-1)
   // The dose last given sets the next due date; the plan only when none was given yet.
@@ -92,17 +93,61 @@ export async function computeSchedule(patientId: number, clock: ScheduleClock, t
   }
 }
 
+export type PatientStanding = ReturnType<typeof standingOf>
+
+/**
+ * Where the patients stand on the clock's day, without the appointment: one function for
+ * the schedule page, the triage item, the due list and the daily sweeps. Two queries
+ * whatever the number of patients: their current plans and their injections (each with
+ * its regimen). Every id asked for is in the answer (with no plan and no injection, he
+ * has not started).
+ */
+export async function computeSchedules(patientIds: readonly number[], clock: ScheduleClock, transaction?: Transaction): Promise<Map<number, PatientStanding>> {
+  const ids = [...new Set(patientIds)]
+  const facts = new Map<number, StandingFacts>(ids.map(id => [id, { plan: null, injections: [] }]))
+  if (!ids.length) return new Map()
+  const [plans, injections] = await Promise.all([
+    PatientRegimen.findAll({
+      where: { patientId: ids, endsOn: { [Op.is]: null } },
+      include: [{ model: Regimen, as: 'regimen' }],
+      order: [['startsOn', 'ASC'], ['id', 'ASC']],
+      transaction,
+    }),
+    Injection.findAll({
+      where: { patientId: ids },
+      attributes: ['id', 'patientId', 'regimenId', 'givenAt', 'givenOn', 'site'],
+      include: [{ model: Regimen, as: 'regimen', attributes: ['id', 'name', 'intervalDays'] }],
+      order: [['givenAt', 'ASC'], ['id', 'ASC']],
+      transaction,
+    }),
+  ])
+  // Plans come oldest first, so the one kept is the current plan (latest start, then latest id).
+  for (const plan of plans) facts.get(plan.patientId)!.plan = plan
+  for (const injection of injections) facts.get(injection.patientId)!.injections.push(injection)
+  return new Map([...facts].map(([id, f]) => [id, standingOf(f, clock)]))
+}
+
+/** Where one patient stands on the clock's day, without the appointment. */
+export async function computeSchedule(patientId: number, clock: ScheduleClock, transaction?: Transaction): Promise<PatientStanding> {
+  return (await computeSchedules([patientId], clock, transaction)).get(patientId)!
+}
+
 /** The appointment as the pages see it, with who confirmed or asked (when not the patient). */
 export async function shapeAppointment(appointment: Appointment, patientUserId: number, timeZone: string, transaction?: Transaction): Promise<AppointmentView> {
-  const requests = await AppointmentChangeRequest.findAll({
-    where: { appointmentId: appointment.id, patientId: appointment.patientId },
-    order: [['createdAt', 'DESC'], ['id', 'DESC']],
-    transaction,
-  })
+  // patientScheduleView reads the requests with the appointment; the other callers here.
+  const preloaded = (appointment as Appointment & { changeRequests?: AppointmentChangeRequest[] }).changeRequests
+  const requests = preloaded
+    ? [...preloaded].sort((a, b) => b.createdAt.getTime() - a.createdAt.getTime() || b.id - a.id)
+    : await AppointmentChangeRequest.findAll({
+        where: { appointmentId: appointment.id, patientId: appointment.patientId },
+        order: [['createdAt', 'DESC'], ['id', 'DESC']],
+        transaction,
+      })
   const open = requests.find(r => r.status === 'open') ?? null
   const answered = requests.find(r => r.status === 'answered') ?? null
-  const by = await attributionLookup(patientUserId, [appointment.confirmedByUserId, open?.requestedByUserId])
-  const answeredBy = answered?.answeredByUserId ? await User.findByPk(answered.answeredByUserId, { attributes: ['name'], transaction }) : null
+  // One read for everyone named: who confirmed, who asked and who answered.
+  const by = await attributionLookup(patientUserId, [appointment.confirmedByUserId, open?.requestedByUserId, answered?.answeredByUserId])
+  const answeredBy = answered?.answeredByUserId ? by(answered.answeredByUserId) : null
   const endsAt = new Date(appointment.startsAt.getTime() + appointment.durationMinutes * 60_000)
   return {
     id: appointment.id,
@@ -136,7 +181,10 @@ export function scheduleAbilities(access: PatientAccess): ScheduleView['can'] {
 
 export async function patientScheduleView(access: PatientAccess, clock: ScheduleClock): Promise<ScheduleView> {
   const patientId = access.patient.id
-  const [schedule, next] = await Promise.all([computeSchedule(patientId, clock), nextAppointmentOf(patientId, clock)])
+  const [schedule, next] = await Promise.all([
+    computeSchedule(patientId, clock),
+    nextAppointmentOf(patientId, clock, undefined, { withChangeRequests: true }),
+  ])
   return {
     patientId,
     today: clock.today,

@@ -125,14 +125,17 @@ export async function openOverdueInjectionItems(now: Date): Promise<number> {
   const sequelize = await useDb()
   const clock = await scheduleClock(now)
   const patients = await Patient.findAll({ attributes: ['id'], include: [{ model: User, as: 'user', attributes: [], where: { active: true } }] })
+  const standings = await computeSchedules(patients.map(p => p.id), clock)
+  const overdue = [...standings].flatMap(([patientId, s]) => s.state === 'overdue' && s.dueDate ? [{ patientId, sourceKey: `overdue:${patientId}:${s.dueDate}` }] : [])
+  // Cycles that already have their item are skipped in one read; openTriageItem still opens at most one per key.
+  const existing = overdue.length ? await TriageItem.findAll({ where: { sourceKey: overdue.map(o => o.sourceKey) }, attributes: ['sourceKey'] }) : []
+  const known = new Set(existing.map(i => i.sourceKey))
   let opened = 0
-  for (const patient of patients) {
-    const schedule = await computeSchedule(patient.id, clock)
-    if (schedule.state !== 'overdue' || !schedule.dueDate) continue
+  for (const { patientId, sourceKey } of overdue.filter(o => !known.has(o.sourceKey))) {
     const item = await sequelize.transaction(transaction => openTriageItem({
-      patientId: patient.id,
+      patientId,
       source: 'overdue-injection',
-      sourceKey: `overdue:${patient.id}:${schedule.dueDate}`,
+      sourceKey,
       level: 'urgent',
       reasons: [{
         rule: 'injection-overdue',

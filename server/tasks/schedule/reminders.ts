@@ -44,12 +44,14 @@ export default defineTask({
     }
 
     const withAppointment = new Set(appointments.map(a => a.patientId))
-    const patients = await Patient.findAll({ include: [{ model: User, as: 'user', where: { active: true } }] })
+    const patients = (await Patient.findAll({ include: [{ model: User, as: 'user', where: { active: true } }] }))
+      .filter(patient => !withAppointment.has(patient.id) && patient.user)
+    // Where every one of them stands, in a fixed number of queries (not one schedule per patient).
+    const standings = await computeSchedules(patients.map(p => p.id), clock)
     for (const patient of patients) {
-      if (withAppointment.has(patient.id) || !patient.user) continue
-      const schedule = await computeSchedule(patient.id, clock)
+      const schedule = standings.get(patient.id)!
       if (schedule.state === 'not-started' || schedule.daysToDue === null || schedule.daysToDue > PLEASE_BOOK_DAYS) continue
-      const user = patient.user
+      const user = patient.user!
       const queued = await sequelize.transaction(transaction => enqueueMail({
         to: user.email,
         template: 'pleaseBook',
