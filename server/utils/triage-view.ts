@@ -29,28 +29,32 @@ export function triageRow(item: TriageItem, now: Date): TriageRowView {
 /** Everything a nurse needs on the item page: the entry, the timeline and his context. */
 export async function triageDetail(item: TriageItem, now: Date): Promise<TriageDetailView> {
   const clock = await scheduleClock(now)
-  const patient = await Patient.findByPk(item.patientId, { include: [{ model: User, as: 'user' }] }) as Patient & { user?: User }
-  const assignee = item.assigneeUserId ? await User.findByPk(item.assigneeUserId, { attributes: ['id', 'name'] }) : null
-  const events = await TriageEvent.findAll({
-    where: { itemId: item.id },
-    include: [{ model: User, as: 'actor', attributes: ['id', 'name', 'role'] }],
-    order: [['at', 'ASC'], ['id', 'ASC']],
-  })
+  const [patient, assignee, events, trend, caregivers, openItems, { flareWatch, ...schedule }] = await Promise.all([
+    Patient.findByPk(item.patientId, { include: [{ model: User, as: 'user' }] }) as Promise<Patient & { user?: User }>,
+    item.assigneeUserId ? User.findByPk(item.assigneeUserId, { attributes: ['id', 'name'] }) : null,
+    TriageEvent.findAll({
+      where: { itemId: item.id },
+      include: [{ model: User, as: 'actor', attributes: ['id', 'name', 'role'] }],
+      order: [['at', 'ASC'], ['id', 'ASC']],
+    }),
+    // The trend, read whole: the item's own entry is nearly always among the last eight.
+    DiaryEntry.findAll({
+      where: { patientId: item.patientId },
+      include: [{ model: User, as: 'enteredBy', attributes: ['id', 'name', 'role'] }],
+      order: [['submittedAt', 'DESC'], ['id', 'DESC']],
+      limit: 8,
+    }),
+    caregiverContacts(item.patientId),
+    TriageItem.findAll({
+      where: { patientId: item.patientId, status: { [Op.ne]: 'closed' }, id: { [Op.ne]: item.id } },
+      order: [['createdAt', 'DESC']],
+    }),
+    computeSchedule(item.patientId, clock),
+  ])
   const entry = item.diaryEntryId
-    ? await DiaryEntry.findByPk(item.diaryEntryId, { include: [{ model: User, as: 'enteredBy', attributes: ['id', 'name', 'role'] }] })
+    ? trend.find(e => e.id === item.diaryEntryId)
+    ?? await DiaryEntry.findByPk(item.diaryEntryId, { include: [{ model: User, as: 'enteredBy', attributes: ['id', 'name', 'role'] }] })
     : null
-  const caregivers = await caregiverContacts(item.patientId)
-  const trend = await DiaryEntry.findAll({
-    where: { patientId: item.patientId },
-    order: [['submittedAt', 'DESC'], ['id', 'DESC']],
-    limit: 8,
-    attributes: ['id', 'submittedAt', 'level', 'hotFlushScore', 'worstPain'],
-  })
-  const openItems = await TriageItem.findAll({
-    where: { patientId: item.patientId, status: { [Op.ne]: 'closed' }, id: { [Op.ne]: item.id } },
-    order: [['createdAt', 'DESC']],
-  })
-  const { flareWatch, ...schedule } = await computeSchedule(item.patientId, clock)
   return {
     ...triageRow(Object.assign(item, { patient, assignee }), now),
     events: events.map(e => ({
