@@ -6,6 +6,7 @@ import * as circle from './0005-circle'
 import * as labs from './0006-labs'
 import * as safety from './0007-safety'
 import * as requestIds from './0008-request-ids'
+import * as readIndexes from './0009-read-indexes'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -20,4 +21,5 @@ export const migrations = [
   { name: '0006-labs', ...labs },
   { name: '0007-safety', ...safety },
   { name: '0008-request-ids', ...requestIds },
+  { name: '0009-read-indexes', ...readIndexes },
 ]
