@@ -76,7 +76,11 @@ export const createRegimenSchema = z.object({
     .int(message('intervalRange')).min(7, message('intervalRange')).max(366, message('intervalRange')),
 }).strict()
 
-/** Staff: book an appointment (today or later). */
+/**
+ * Staff: book an appointment (today or later). `replaces` is the open appointment the form
+ * showed (null: none); when given and it is no longer the one open, the booking answers
+ * 409 instead of replacing an appointment the nurse has not seen.
+ */
 export function scheduleAppointmentSchema(today: string) {
   return z.object({
     date: date('dateRequired', value => value >= today, 'pastDate'),
@@ -84,6 +88,7 @@ export function scheduleAppointmentSchema(today: string) {
     place,
     durationMinutes: z.coerce.number({ invalid_type_error: message('durationRange') }).int(message('durationRange'))
       .min(5, message('durationRange')).max(240, message('durationRange')).default(30),
+    replaces: z.number({ invalid_type_error: 'validation.generic.invalid' }).int('validation.generic.invalid').positive('validation.generic.invalid').nullable().optional(),
   }).strict()
 }
 

@@ -295,6 +295,34 @@ describe('rebooking while a nurse answers the request', () => {
   })
 })
 
+describe('two nurses book at the same moment', () => {
+  it('with the appointment each saw (replaces), one booking wins and the other gets 409: one new appointment, one e-mail', async () => {
+    const patientId = ids['LPU-1006']!
+    const schedule = (await nurse.get(`/api/patients/${patientId}/schedule`)).body
+    const seen = schedule.nextAppointment.id
+    const bookings = [
+      { by: nurse, body: { date: plusDays(schedule.today, 10), time: '09:00', place: 'Injection room 1', replaces: seen } },
+      { by: nurse2, body: { date: plusDays(schedule.today, 11), time: '14:00', place: 'Injection room 2', replaces: seen } },
+    ]
+    const replies = await Promise.all(bookings.map(b => b.by.post(`/api/patients/${patientId}/appointments`, b.body)))
+    expect(statuses(replies)).toEqual([201, 409])
+    expect(replies.find(r => r.status === 409)!.body.message).toBe('errors.schedule.appointmentChanged')
+    expect(en.errors.schedule.appointmentChanged).toMatch(/changed this appointment/)
+    const winner = bookings[replies.findIndex(r => r.status === 201)]!.body
+    const open = await sql<{ place: string }>(app.dbPath, 'SELECT place FROM appointments WHERE patient_id = ? AND status IN (\'booked\', \'confirmed\', \'change-requested\')', [patientId])
+    expect(open).toEqual([{ place: winner.place }])
+    const address = 'kenji@demo.tidewell.test'
+    await flushMail()
+    const booked = caught(address, en.mail.appointmentBooked.subject)
+    expect(booked).toHaveLength(1)
+    expect(calendarEventOf(booked[0]!).location).toBe(winner.place)
+
+    // A page that saw no appointment (null) while one is open is refused the same way.
+    const stale = await nurse.post(`/api/patients/${patientId}/appointments`, { date: plusDays(schedule.today, 12), time: '09:00', place: 'Injection room 1', replaces: null })
+    expect(stale.status).toBe(409)
+  })
+})
+
 describe('the diary and the right-now send stay idempotent', () => {
   it('three sends of one draft at the same moment store one entry: one 201, then 200 with the same id', async () => {
     const patientId = ids['LPU-1009']!

@@ -9,7 +9,9 @@ import { Appointment, AppointmentChangeRequest, User } from '../../../db/models'
  * ahead of him, and the patient gets an e-mail with the calendar file, in his language.
  * The open ones are cancelled by a conditional update in the same transaction (still open
  * when it runs, or 409 and nothing written), so an answer to one of their requests that
- * comes after finds it withdrawn (409) instead of moving a cancelled appointment.
+ * comes after finds it withdrawn (409) instead of moving a cancelled appointment. With
+ * `replaces` (the open appointment the nurse saw, or null), a booking made while another
+ * nurse booked or moved it answers 409 and writes nothing: one booking, one e-mail.
  */
 export default defineEventHandler(async (event) => {
   const { patient, user } = await authorizePatient(event, idParam(event), 'appointment.schedule')
@@ -27,6 +29,13 @@ export default defineEventHandler(async (event) => {
       where: { patientId: patient.id, status: { [Op.in]: [...OPEN_APPOINTMENT_STATUSES] }, startsAt: { [Op.gte]: startOfClinicDay(clock.today, tz) } },
       transaction,
     })
+    if (input.replaces !== undefined) {
+      const seen = input.replaces === null ? [] : [input.replaces]
+      const open = replaced.map(old => old.id)
+      if (seen.length !== open.length || !seen.every(id => open.includes(id))) {
+        throw createError({ statusCode: 409, message: 'errors.schedule.appointmentChanged' })
+      }
+    }
     if (replaced.length) {
       const ids = replaced.map(old => old.id)
       const [cancelled] = await Appointment.update({ status: 'cancelled' }, {
