@@ -36,6 +36,9 @@ export default defineNuxtConfig({
     mailCatcherPort: 2525,
     outboxPollMs: 2000,
     outboxRetryBaseMs: 30_000,
+    // /api/ready answers 503 below this much free disk or with an e-mail unsent this long.
+    readyMinFreeMb: 200,
+    readyMaxOutboxAgeMin: 15,
     // The write line (server/utils/write-queue.ts): how many writes may wait, and how long.
     writeQueueMax: 200,
     writeQueueWaitMs: 10_000,

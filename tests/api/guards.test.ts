@@ -13,6 +13,7 @@ const PUBLIC = new Set([
   'POST /api/auth/forgot-password',
   'POST /api/auth/set-password',
   'GET /api/health',
+  'GET /api/ready',
   'GET /api/clinic',
   `GET /api/circle-invitations/${'x'.repeat(43)}`,
   `POST /api/circle-invitations/${'x'.repeat(43)}/accept`,
