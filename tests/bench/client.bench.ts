@@ -30,6 +30,7 @@ const PAGES = [
   { name: 'injections', path: '/injections', signedIn: true },
 ] as const
 const LIGHTHOUSE_PAGES = ['sign-in', 'Today', 'diary form']
+const LIGHTHOUSE_RUNS = Number(process.env.TIDEWELL_BENCH_LIGHTHOUSE_RUNS ?? 3)
 const CHROME_FLAGS = ['--headless=new', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic']
 
 interface ScriptBytes { transferred: number, compressed: number, decoded: number, files: number }
@@ -53,8 +54,9 @@ async function firstLoad(context: BrowserContext, url: string) {
     const bucket = loaded ? afterLoad : beforeLoad
     pending.push((async () => {
       const [sizes, body] = await Promise.all([response.request().sizes(), response.body()])
-      bucket.transferred += sizes.responseBodySize + sizes.responseHeadersSize
-      bucket.compressed += sizes.responseBodySize
+      // A body served from the memory cache reports -1.
+      bucket.transferred += Math.max(0, sizes.responseBodySize) + Math.max(0, sizes.responseHeadersSize)
+      bucket.compressed += Math.max(0, sizes.responseBodySize)
       bucket.decoded += body.length
       bucket.files++
       encodings.add(response.headers()['content-encoding'] ?? 'identity')
@@ -145,12 +147,21 @@ describe('first-load JavaScript and Lighthouse on the patient pages', () => {
     }
     console.log(`\nFirst-load JavaScript per page (Chromium, empty cache, 390 x 844; aim: at most 150 kB compressed)\n${lines.join('\n')}\n`)
 
-    const scores = [`${'page'.padEnd(15)} score   FCP       LCP       TBT       CLS`]
+    // The score moves with the machine's load (TBT most), so each page runs LIGHTHOUSE_RUNS
+    // times and the run with the median score is shown, with the lowest and highest beside it.
+    const scores = [`${'page'.padEnd(15)} median (min-max)   FCP       LCP       TBT       CLS`]
     for (const target of PAGES.filter(p => LIGHTHOUSE_PAGES.includes(p.name))) {
-      const run = await performanceScore(`${app.url}${target.path}`, target.signedIn ? `${SESSION_COOKIE}=${cookieValue}` : undefined)
-      expect(run.finalUrl, `Lighthouse measured ${target.name}, not a redirect`).toBe(target.path)
-      scores.push(`${target.name.padEnd(15)} ${String(run.score).padStart(5)}   ${run.fcp.padEnd(9)} ${run.lcp.padEnd(9)} ${run.tbt.padEnd(9)} ${run.cls}${run.warnings.length ? `   (${run.warnings.join('; ')})` : ''}`)
+      const runs = []
+      for (let i = 0; i < LIGHTHOUSE_RUNS; i++) {
+        const run = await performanceScore(`${app.url}${target.path}`, target.signedIn ? `${SESSION_COOKIE}=${cookieValue}` : undefined)
+        expect(run.finalUrl, `Lighthouse measured ${target.name}, not a redirect`).toBe(target.path)
+        runs.push(run)
+      }
+      runs.sort((a, b) => a.score - b.score)
+      const run = runs[Math.floor(runs.length / 2)]!
+      const spread = `${run.score} (${runs[0]!.score}-${runs.at(-1)!.score})`
+      scores.push(`${target.name.padEnd(15)} ${spread.padEnd(18)} ${run.fcp.padEnd(9)} ${run.lcp.padEnd(9)} ${run.tbt.padEnd(9)} ${run.cls}${run.warnings.length ? `   (${run.warnings.join('; ')})` : ''}`)
     }
-    console.log(`\nLighthouse 12.2.3 mobile performance (Debian Chromium, simulated throttling; aim: 95 or more)\n${scores.join('\n')}\n`)
+    console.log(`\nLighthouse 12.2.3 mobile performance, ${LIGHTHOUSE_RUNS} runs a page (Debian Chromium, simulated throttling; aim: 95 or more)\n${scores.join('\n')}\n`)
   })
 })
