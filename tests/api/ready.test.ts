@@ -163,5 +163,12 @@ describe('GET /api/admin/outbox', () => {
     expect((await nurse.get('/api/admin/outbox')).status).toBe(403)
     const audited = await sql<{ action: string }>(stuck.dbPath, 'SELECT action FROM audit_events WHERE action = \'outbox.read\'')
     expect(audited).toHaveLength(1)
+
+    // The page, rendered on the server, says the same in words.
+    const page = await admin.get('/admin/outbox')
+    expect(page.status).toBe(200)
+    expect(page.body).toContain('E-mail outbox')
+    expect(page.body).toContain(`${reply.body.backlog.count} e-mails waiting`)
+    expect(page.body).toContain('ECONNREFUSED')
   })
 })
