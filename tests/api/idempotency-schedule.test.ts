@@ -215,6 +215,27 @@ describe('two nurses answer one request at the same moment', () => {
   })
 })
 
+describe('the same nurse sends her answer twice', () => {
+  it('the second send gets 200 with the same appointment and no second e-mail; a different answer after it gets 409', async () => {
+    const patientId = ids['LPU-1002']!
+    const bernard = await Client.signIn(app.url, 'bernard@demo.tidewell.test')
+    const schedule = (await bernard.get(`/api/patients/${patientId}/schedule`)).body
+    const requestId = schedule.nextAppointment.openRequest.id
+    const answer = { decision: 'move', date: plusDays(schedule.today, 6), time: '13:15', place: 'Injection room 4', note: 'After lunch.' }
+    const first = await nurse.post(`/api/change-requests/${requestId}/answer`, answer)
+    expect(first.status).toBe(200)
+    const again = await nurse.post(`/api/change-requests/${requestId}/answer`, answer)
+    expect(again.status).toBe(200)
+    expect(again.body).toEqual(first.body)
+    const other = await nurse.post(`/api/change-requests/${requestId}/answer`, { ...answer, time: '15:00' })
+    expect(other.status).toBe(409)
+    expect((await nurse2.post(`/api/change-requests/${requestId}/answer`, answer)).status).toBe(409)
+    expect(await outboxTo('bernard@demo.tidewell.test', en.mail.scheduleChangeMoved.subject)).toHaveLength(1)
+    const stored = (await nurse.get(`/api/patients/${patientId}/schedule`)).body.nextAppointment
+    expect(stored).toMatchObject({ localTime: '13:15', place: 'Injection room 4' })
+  })
+})
+
 describe('two confirmations at the same moment', () => {
   it('both answer 200 (or one 409) and one confirmation is stored', async () => {
     const patientId = ids['LPU-1001']!

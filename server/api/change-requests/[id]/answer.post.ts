@@ -1,7 +1,25 @@
 import { zonedDateTimeToUtc } from '../../../../shared/clinical/schedule'
 import { answerChangeRequestSchema } from '../../../../shared/schemas/schedule'
 import { OPEN_APPOINTMENT_STATUSES } from '../../../../shared/scheduling/types'
+import type { Transaction } from 'sequelize'
 import { Appointment, AppointmentChangeRequest, User } from '../../../db/models'
+
+/** The appointment, when the closed request already holds exactly this answer from this user. */
+async function sameAnswerAgain(
+  requestId: number,
+  input: { decision: string, place?: string, note?: string },
+  newStart: Date | null,
+  userId: number,
+  transaction: Transaction,
+) {
+  const stored = await AppointmentChangeRequest.findByPk(requestId, { transaction })
+  if (!stored || stored.status !== 'answered' || stored.answeredByUserId !== userId) return null
+  if (stored.decision !== input.decision || stored.answerNote !== (input.note ?? null)) return null
+  const appointment = await Appointment.findOne({ where: { id: stored.appointmentId, patientId: stored.patientId }, transaction })
+  if (!appointment) return null
+  if (newStart && (appointment.startsAt.getTime() !== newStart.getTime() || appointment.place !== (input.place ?? appointment.place))) return null
+  return appointment
+}
 
 /**
  * Staff answer a request for another time: move the appointment (it then waits for the
@@ -9,7 +27,9 @@ import { Appointment, AppointmentChangeRequest, User } from '../../../db/models'
  * Only one answer wins: the request is closed by a conditional update (WHERE status is
  * open) and the appointment changed only at the version read in the same transaction, so
  * a second answer at the same moment gets 409 and writes nothing, and the e-mail and its
- * calendar file are made from the appointment as stored.
+ * calendar file are made from the appointment as stored. The same nurse sending the same
+ * answer again (a retry after a lost reply) gets 200 and the appointment, with no second
+ * e-mail.
  */
 export default defineEventHandler(async (event) => {
   await useDb()
@@ -31,7 +51,11 @@ export default defineEventHandler(async (event) => {
       { status: 'answered', decision: input.decision, answerNote: input.note ?? null, answeredByUserId: user.id, answeredAt: clock.now },
       { where: { id: request.id, patientId: patient.id, status: 'open' }, transaction },
     )
-    if (!answered) throw createError({ statusCode: 409, message: 'errors.schedule.requestClosed' })
+    if (!answered) {
+      const retried = await sameAnswerAgain(request.id, input, newStart, user.id, transaction)
+      if (retried) return retried
+      throw createError({ statusCode: 409, message: 'errors.schedule.requestClosed' })
+    }
     const current = await Appointment.findOne({ where: { id: request.appointmentId, patientId: patient.id }, transaction })
     if (!current || !(OPEN_APPOINTMENT_STATUSES as readonly string[]).includes(current.status)) {
       throw createError({ statusCode: 409, message: 'errors.schedule.appointmentClosed' })
