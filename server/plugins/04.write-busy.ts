@@ -8,6 +8,6 @@ export default defineNitroPlugin((nitroApp) => {
   nitroApp.hooks.hook('error', (error, { event }) => {
     if (!event || event.node.res.headersSent) return
     const cause = isWriteQueueBusy(error) ? error : isWriteQueueBusy((error as { cause?: unknown }).cause) ? (error as { cause: { data: { retryAfter: number } } }).cause : null
-    if (cause) setResponseHeader(event, 'Retry-After', String(cause.data.retryAfter))
+    if (cause) setResponseHeader(event, 'Retry-After', cause.data.retryAfter)
   })
 })

@@ -113,6 +113,9 @@ export function isWriteStatement(sql: unknown): boolean {
 }
 
 const turns = new AsyncLocalStorage<Turn>()
+
+/** Committed or rolled back (Sequelize sets `finished`; its types do not declare it). */
+const isFinished = (transaction: Transaction) => (transaction as Transaction & { finished?: string }).finished !== undefined
 let writeQueue: WriteQueue | undefined
 
 /** The line this process's writes wait in (undefined before the first connection). */
@@ -128,7 +131,7 @@ function queueWrites(sequelize: Sequelize, queue: WriteQueue) {
     if (!callback) return begin(...args)
     const options = ((args.length > 1 ? args[0] : undefined) ?? {}) as { transaction?: Transaction | null }
     const turn = turns.getStore()
-    if (turn?.holding && turn.transaction && !turn.transaction.finished) {
+    if (turn?.holding && turn.transaction && !isFinished(turn.transaction)) {
       return begin({ ...options, transaction: options.transaction ?? turn.transaction }, callback)
     }
     return queue.run(async () => {
@@ -148,7 +151,7 @@ function queueWrites(sequelize: Sequelize, queue: WriteQueue) {
   const query = sequelize.query.bind(sequelize) as (sql: unknown, options?: Record<string, unknown>) => Promise<unknown>
   sequelize.query = ((sql: unknown, options?: Record<string, unknown>) => {
     const turn = turns.getStore()
-    if (turn?.holding && turn.transaction && !turn.transaction.finished && options?.transaction === undefined) {
+    if (turn?.holding && turn.transaction && !isFinished(turn.transaction) && options?.transaction === undefined) {
       return query(sql, { ...options, transaction: turn.transaction })
     }
     if (options?.transaction || turn?.holding || !isWriteStatement(sql)) return query(sql, options)
