@@ -105,3 +105,23 @@ describe('precompressed static assets', () => {
     expect(html).toMatch(/<script type="module" src="\/_nuxt\//)
   })
 })
+
+describe('what a second visit does not download again', () => {
+  it('build files under /_nuxt/ are cached for a year (their names change with their contents)', async () => {
+    const reply = await get(await entryScript(), 'br')
+    expect(reply.headers['cache-control']).toMatch(/max-age=31536000/)
+    expect(reply.headers['cache-control']).toMatch(/immutable/)
+  })
+
+  it('the locale messages, at an address that holds a hash of the locale files, are cached for a day', async () => {
+    // The entry script holds the hash of each locale's messages ({en:"1a2b3c4d",es:…}); the
+    // browser fetches /_i18n/<hash>/<locale>/messages.json.
+    const entry = (await get(await entryScript())).body.toString('utf8')
+    const hash = /\ben:"([0-9a-f]{8})",es:"[0-9a-f]{8}"/.exec(entry)?.[1]
+    expect(hash, 'the entry script names the messages hash').toBeTruthy()
+    const reply = await get(`/_i18n/${hash}/en/messages.json`)
+    expect(reply.status).toBe(200)
+    expect(JSON.parse(reply.body.toString('utf8')).en.auth).toBeTruthy()
+    expect(reply.headers['cache-control']).toMatch(/max-age=86400\b/)
+  })
+})
