@@ -79,7 +79,7 @@ class Reader {
           const hidden = [...main.querySelectorAll<HTMLElement>('.sr-only')]
           const saved = hidden.map(element => element.style.display)
           hidden.forEach((element) => { element.style.display = 'none' })
-          const text = main.innerText
+          const text = (main as HTMLElement).innerText
           hidden.forEach((element, index) => { element.style.display = saved[index]! })
           return text
         })]
