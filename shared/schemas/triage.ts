@@ -23,7 +23,9 @@ const optionalNote = z.string().trim().max(2000, 'validation.triage.noteTooLong'
 
 /** What a nurse or clinician can record on an item: one body shape per event type. */
 export const triageActionSchema = z.discriminatedUnion('type', [
-  z.object({ type: z.literal('claim') }).strict(),
+  // `from`: the assignee the nurse saw (null: nobody). When given, the claim holds only if the
+  // item still has that assignee, so of two nurses taking one item at once only one wins.
+  z.object({ type: z.literal('claim'), from: z.number().int().positive().nullable().optional() }).strict(),
   z.object({ type: z.literal('note'), note }).strict(),
   z.object({ type: z.literal('call'), reached: z.boolean(), note: optionalNote }).strict(),
   z.object({ type: z.literal('message'), note }).strict(),

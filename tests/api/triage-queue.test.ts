@@ -142,6 +142,30 @@ describe('the queue', () => {
     expect((await nurse.get('/api/triage?level=severe')).status).toBe(400)
   })
 
+  it('two nurses taking one unassigned item at the same moment: one 200, one 409, and the item is the winner\'s', async () => {
+    const nora = await Client.signIn(app.url, 'nurse@demo.tidewell.test')
+    const tobias = await Client.signIn(app.url, 'nurse2@demo.tidewell.test')
+    const patient = await Client.signIn(app.url, 'mateo@demo.tidewell.test')
+    const entry = await patient.post(`/api/patients/${ids['LPU-1012']}/diary`, urgentEntry())
+    const [{ id }] = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [entry.body.id]) as [{ id: number }]
+
+    // Both saw nobody on it and press "Take it" together.
+    const answers = await Promise.all([nora, tobias].map(n => n.post(`/api/triage/${id}/events`, { type: 'claim', from: null })))
+    expect(answers.map(a => a.status).sort()).toEqual([200, 409])
+    const loser = answers.find(a => a.status === 409)!
+    expect(loser.body.message).toBe('errors.triageTakenMeanwhile')
+    const winnerName = answers.find(a => a.status === 200)!.body.assignee.name
+    const [row] = await sql<{ name: string }>(app.dbPath, 'SELECT u.name FROM triage_items t JOIN users u ON u.id = t.assignee_user_id WHERE t.id = ?', [id])
+    expect(row!.name).toBe(winnerName)
+    const claims = await sql<{ n: number }>(app.dbPath, "SELECT COUNT(*) AS n FROM triage_events WHERE item_id = ? AND type = 'claimed'", [id])
+    expect(claims[0]!.n).toBe(1)
+
+    // Taking it over on purpose names the nurse now on it, and works.
+    const winnerId = (await sql<{ a: number }>(app.dbPath, 'SELECT assignee_user_id AS a FROM triage_items WHERE id = ?', [id]))[0]!.a
+    const other = answers[0]!.status === 409 ? nora : tobias
+    expect((await other.post(`/api/triage/${id}/events`, { type: 'claim', from: winnerId })).status).toBe(200)
+  })
+
   it('claim, call, disposition and close, with the timeline; closing needs a disposition; the patient sees the outcome', async () => {
     const nurse = await Client.signIn(app.url, 'nurse@demo.tidewell.test')
     const patient = await Client.signIn(app.url, 'mateo@demo.tidewell.test')

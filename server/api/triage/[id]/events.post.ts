@@ -8,7 +8,9 @@ import { DiaryEntry, TriageEvent, TriageItem } from '../../../db/models'
  * action lands in the item's timeline and, through the access policy, the audit trail.
  * A change of the item is one conditional UPDATE (… WHERE status != 'closed') inside the
  * transaction: of two nurses closing one item at once, the second changes nothing and
- * gets 409 (errors.triageClosed), even if another process wrote in between.
+ * gets 409 (errors.triageClosed), even if another process wrote in between. A claim names
+ * the assignee the nurse saw (`from`): of two nurses taking one item at once, the second
+ * gets 409 (errors.triageTakenMeanwhile) instead of silently taking it from the first.
  */
 export default defineEventHandler(async (event) => {
   const staff = await requireRole(event, ['nurse', 'clinician'])
@@ -26,16 +28,16 @@ export default defineEventHandler(async (event) => {
     const log = (type: TriageEventType, data: Record<string, unknown> = {}) =>
       TriageEvent.create({ itemId: item.id, actorUserId: user.id, type, note: 'note' in action ? action.note ?? null : null, data, at: now }, { transaction })
     type ItemChange = Partial<Pick<TriageItem, 'status' | 'assigneeUserId' | 'escalatedAt' | 'disposition' | 'closedAt'>>
-    const change = async (values: ItemChange, where: Record<string, unknown> = {}) => {
+    const change = async (values: ItemChange, where: Record<string, unknown> = {}, lost = 'errors.triageClosed') => {
       const [changed] = await TriageItem.update(values, { where: { id: item.id, status: { [Op.ne]: 'closed' }, ...where }, transaction })
-      if (changed !== 1) throw createError({ statusCode: 409, message: 'errors.triageClosed' })
+      if (changed !== 1) throw createError({ statusCode: 409, message: lost })
       item.set(values)
     }
     const startWork = item.status === 'new' || item.status === 'waiting' ? { status: 'in-progress' as const } : {}
 
     switch (action.type) {
       case 'claim':
-        await change({ assigneeUserId: user.id, ...startWork })
+        await change({ assigneeUserId: user.id, ...startWork }, action.from === undefined ? {} : { assigneeUserId: action.from }, 'errors.triageTakenMeanwhile')
         await log('claimed')
         break
       case 'note':
