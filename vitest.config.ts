@@ -5,7 +5,7 @@ const root = fileURLToPath(new URL('.', import.meta.url))
 
 export default defineConfig({
   resolve: {
-    alias: { '#shared': `${root}shared` },
+    alias: { '#shared': `${root}shared`, '~~': root.replace(/\/$/, '') },
   },
   test: {
     projects: [

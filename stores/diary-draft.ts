@@ -1,7 +1,7 @@
 import { defineStore } from 'pinia'
 import { RIGHT_NOW_ITEMS } from '~~/shared/clinical/triage'
 import type { RightNowItem } from '~~/shared/clinical/triage'
-import { emptyDiaryEntry } from '~~/shared/schemas/diary'
+import { emptyDiaryEntry, withDiaryDefaults } from '~~/shared/schemas/diary'
 import type { DiaryEntryInput } from '~~/shared/schemas/diary'
 
 /** The IPSS part of a draft: an item stays null until he picks an answer. */
@@ -71,22 +71,19 @@ function isObject(value: unknown): value is Record<string, unknown> {
   return value !== null && typeof value === 'object' && !Array.isArray(value)
 }
 
-/** Lays a saved draft over a fresh one, so a draft saved by an older page never lacks a section. */
-function restore(saved: unknown): DiaryDraft {
-  const fresh = emptyDiaryDraft()
-  if (!isObject(saved)) return fresh
-  const result: Record<string, unknown> = { ...fresh }
-  for (const [key, value] of Object.entries(fresh)) {
-    const stored = saved[key]
-    if (stored === undefined) continue
-    result[key] = isObject(value) && isObject(stored) ? { ...value, ...stored } : stored
-  }
-  if (typeof saved.note === 'string') result.note = saved.note
-  const rightNow = result.rightNow as Record<string, unknown>
-  for (const item of RIGHT_NOW_ITEMS) {
-    if (typeof rightNow[item] !== 'boolean') rightNow[item] = null
-  }
-  return result as DiaryDraft
+/**
+ * Lays a saved draft over a fresh one (withDiaryDefaults), so a draft saved by an older page
+ * never lacks a section; keys the diary no longer has are dropped (the server's schema is
+ * strict), and a right-now question not answered yes or no stays unanswered.
+ */
+export function restoreDiaryDraft(saved: unknown): DiaryDraft {
+  if (!isObject(saved)) return emptyDiaryDraft()
+  const fresh = emptyDiaryDraft() as unknown as Record<string, unknown>
+  const known = Object.fromEntries(Object.entries(saved).filter(([key, value]) => key === 'note' ? typeof value === 'string' : key in fresh))
+  const result = withDiaryDefaults(known) as unknown as DiaryDraft
+  const rightNow = isObject(saved.rightNow) ? saved.rightNow : {}
+  result.rightNow = Object.fromEntries(RIGHT_NOW_ITEMS.map(item => [item, typeof rightNow[item] === 'boolean' ? rightNow[item] : null])) as RightNowDraft
+  return result
 }
 
 /** The right-now items answered yes in a draft. */
@@ -160,7 +157,7 @@ export const useDiaryDraftStore = defineStore('diary-draft', () => {
       const saved = raw ? JSON.parse(raw) as Partial<Omit<SavedDraft, 'version'>> & { version?: number } : null
       if (saved?.version === 2 && typeof saved.draftId === 'string' && saved.draftId) {
         draftId.value = saved.draftId
-        draft.value = restore(saved.draft)
+        draft.value = restoreDiaryDraft(saved.draft)
         step.value = Number.isInteger(saved.step) ? Number(saved.step) : 0
         glucoseUnit.value = saved.glucoseUnit === 'mmol/L' ? 'mmol/L' : 'mg/dL'
         temperatureUnit.value = saved.temperatureUnit === '°C' ? '°C' : '°F'
@@ -175,7 +172,7 @@ export const useDiaryDraftStore = defineStore('diary-draft', () => {
       else if (saved?.version === 1) {
         // A draft from the page before right-now answers started unanswered: keep the rest,
         // ask the right-now check again.
-        draft.value = { ...restore(saved.draft), rightNow: unansweredRightNow() }
+        draft.value = { ...restoreDiaryDraft(saved.draft), rightNow: unansweredRightNow() }
         glucoseUnit.value = saved.glucoseUnit === 'mmol/L' ? 'mmol/L' : 'mg/dL'
         ipssDecided.value = saved.ipssDecided === true
       }
