@@ -52,6 +52,15 @@ export default defineNuxtConfig({
       cookie: { sameSite: 'lax', httpOnly: true },
     },
   },
+  hooks: {
+    // nuxt-auth-utils adds an OAuth block for some forty providers to the runtime config;
+    // Tidewell signs in with its own passwords only. Nitro copies the runtime config and
+    // walks every key against the environment once per request (each internal fetch of a
+    // server render is a request), which cost about 6 ms of CPU per Today page.
+    'nitro:config'(config) {
+      if (config.runtimeConfig) delete config.runtimeConfig.oauth
+    },
+  },
   nitro: {
     // Precompress everything in .output/public at build time (.gz and .br beside each file);
     // Nitro then serves the one the browser accepts. Page HTML is rendered per request and
