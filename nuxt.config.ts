@@ -42,6 +42,9 @@ export default defineNuxtConfig({
     // The write line (server/utils/write-queue.ts): how many writes may wait, and how long.
     writeQueueMax: 200,
     writeQueueWaitMs: 10_000,
+    // How many reverse proxies stand in front (0: none, X-Forwarded-For is ignored); see
+    // clientIp() in server/utils/throttle.ts.
+    trustProxy: 0,
     publicUrl: 'http://localhost:3000',
     seedDemo: false,
     seedDemoActivity: false,

@@ -11,12 +11,11 @@ export default defineEventHandler(async (event) => {
   await useDb()
 
   // The attempt counts as a failure until the password proves right (sign-in-limit.ts).
+  // Per pair, per account and per address: a growing wait, never a long lock on the account.
   const key = accountKey(email)
-  if (!await takeAttempt(key)) {
-    const wait = Math.max(1, await secondsLocked(key))
-    setResponseHeader(event, 'Retry-After', wait)
-    throw createError({ statusCode: 429, message: 'errors.tooManyAttempts', data: { retryAfter: wait } })
-  }
+  const ip = ipKey(event)
+  const wait = await takeAttempt(key, ip)
+  if (wait) throw tooManyAttempts(event, wait)
 
   const user = await User.findOne({ where: { email }, include: [{ model: Patient, as: 'patient' }] })
   decoyHash ??= hashPassword(crypto.randomUUID())
@@ -25,7 +24,7 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 401, message: 'errors.signInFailed' })
   }
 
-  await clearFailures(key)
+  await clearFailures(key, ip)
   const patient = (user as User & { patient?: Patient | null }).patient
   const sessionUser = { id: user.id, role: user.role, name: user.name, language: user.language, patientId: patient?.id ?? null }
   await replaceUserSession(event, { user: sessionUser, loggedInAt: Date.now() })

@@ -7,6 +7,7 @@ import * as labs from './0006-labs'
 import * as safety from './0007-safety'
 import * as requestIds from './0008-request-ids'
 import * as readIndexes from './0009-read-indexes'
+import * as throttle from './0011-throttle'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -22,4 +23,5 @@ export const migrations = [
   { name: '0007-safety', ...safety },
   { name: '0008-request-ids', ...requestIds },
   { name: '0009-read-indexes', ...readIndexes },
+  { name: '0011-throttle', ...throttle },
 ]

@@ -5,12 +5,14 @@ import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequel
 export class SignInFailure extends Model<InferAttributes<SignInFailure>, InferCreationAttributes<SignInFailure>> {
   declare id: CreationOptional<number>
   declare accountKey: string
+  declare ipKey: CreationOptional<string | null>
   declare at: Date
 
   static initModel(sequelize: Sequelize) {
     SignInFailure.init({
       id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
       accountKey: { type: DataTypes.STRING, allowNull: false, field: 'account_key' },
+      ipKey: { type: DataTypes.STRING, allowNull: true, field: 'ip_key' },
       at: { type: DataTypes.DATE, allowNull: false },
     }, { sequelize, tableName: 'sign_in_failures', timestamps: false })
   }
