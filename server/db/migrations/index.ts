@@ -8,6 +8,7 @@ import * as safety from './0007-safety'
 import * as requestIds from './0008-request-ids'
 import * as readIndexes from './0009-read-indexes'
 import * as throttle from './0011-throttle'
+import * as secondFactor from './0012-second-factor'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -24,4 +25,5 @@ export const migrations = [
   { name: '0008-request-ids', ...requestIds },
   { name: '0009-read-indexes', ...readIndexes },
   { name: '0011-throttle', ...throttle },
+  { name: '0012-second-factor', ...secondFactor },
 ]

@@ -15,15 +15,16 @@ import { Patient } from './patient'
 import { PatientRegimen } from './patient-regimen'
 import { Regimen } from './regimen'
 import { SignInFailure } from './sign-in-failure'
+import { TotpRecoveryCode } from './totp-recovery-code'
 import { TriageEvent } from './triage-event'
 import { TriageItem } from './triage-item'
 import { User } from './user'
 
-export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TriageEvent, TriageItem, User }
+export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TotpRecoveryCode, TriageEvent, TriageItem, User }
 
 /** Registers every model and its associations on one connection. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [User, Patient, CareGrant, AuditEvent, OutboxMessage, OneTimeToken, SignInFailure, CaughtMail, ClinicSetting, CircleInvitation, DiaryEntry, Regimen, PatientRegimen, Injection, Appointment, AppointmentChangeRequest, TriageItem, TriageEvent]) {
+  for (const model of [User, Patient, CareGrant, AuditEvent, OutboxMessage, OneTimeToken, SignInFailure, CaughtMail, ClinicSetting, CircleInvitation, DiaryEntry, Regimen, PatientRegimen, Injection, Appointment, AppointmentChangeRequest, TriageItem, TriageEvent, TotpRecoveryCode]) {
     model.initModel(sequelize)
   }
   User.hasOne(Patient, { foreignKey: { name: 'userId', field: 'user_id', allowNull: false }, as: 'patient' })

@@ -12,6 +12,13 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare active: CreationOptional<boolean>
   /** His own phone (a caregiver's number the nurse can call); patients keep theirs on the patient record. */
   declare phone: CreationOptional<string | null>
+  /** Second factor (migration 0012, server/utils/totp.ts): secrets AES-256-GCM encrypted, never sent out after enrolment. */
+  declare totpSecret: CreationOptional<string | null>
+  declare totpPendingSecret: CreationOptional<string | null>
+  declare totpEnabledAt: CreationOptional<Date | null>
+  declare totpLastStep: CreationOptional<number | null>
+  declare totpFailures: CreationOptional<number>
+  declare totpFailedAt: CreationOptional<Date | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 
@@ -25,6 +32,12 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
       language: { type: DataTypes.STRING, allowNull: false, defaultValue: 'en' },
       active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
       phone: { type: DataTypes.STRING, allowNull: true },
+      totpSecret: { type: DataTypes.TEXT, allowNull: true, field: 'totp_secret' },
+      totpPendingSecret: { type: DataTypes.TEXT, allowNull: true, field: 'totp_pending_secret' },
+      totpEnabledAt: { type: DataTypes.DATE, allowNull: true, field: 'totp_enabled_at' },
+      totpLastStep: { type: DataTypes.INTEGER, allowNull: true, field: 'totp_last_step' },
+      totpFailures: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0, field: 'totp_failures' },
+      totpFailedAt: { type: DataTypes.DATE, allowNull: true, field: 'totp_failed_at' },
       createdAt: { type: DataTypes.DATE, field: 'created_at' },
       updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
     }, { sequelize, tableName: 'users' })
