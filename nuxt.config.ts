@@ -34,6 +34,8 @@ export default defineNuxtConfig({
     smtpUrl: '',
     mailFrom: 'Tidewell <no-reply@tidewell.test>',
     mailCatcherPort: 2525,
+    // The local mail catcher outside development and the demo (NUXT_MAIL_CATCHER=true).
+    mailCatcher: false,
     outboxPollMs: 2000,
     outboxRetryBaseMs: 30_000,
     // /api/ready answers 503 below this much free disk or with an e-mail unsent this long.

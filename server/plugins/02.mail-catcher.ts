@@ -5,11 +5,17 @@ import { CaughtMail } from '../db/models'
 /**
  * With no SMTP_URL, a local mail catcher listens on loopback and keeps every message it
  * receives in the database, so the demo's e-mails can be read on the admin "Mail catcher"
- * page. Nothing leaves the machine.
+ * page. Nothing leaves the machine. It holds every reset and invitation link, so it runs
+ * only in development, in the demo (NUXT_SEED_DEMO) or when NUXT_MAIL_CATCHER=true.
  */
+export function mailCatcherEnabled(): boolean {
+  const config = useRuntimeConfig()
+  return !config.smtpUrl && (import.meta.dev || Boolean(config.seedDemo) || String(config.mailCatcher) === 'true')
+}
+
 export default defineNitroPlugin((nitroApp) => {
   const config = useRuntimeConfig()
-  if (config.smtpUrl) return
+  if (!mailCatcherEnabled()) return
   const server = new SMTPServer({
     authOptional: true,
     disabledCommands: ['AUTH', 'STARTTLS'],
