@@ -28,7 +28,7 @@ export const LIMITS = {
   /** Set-password tries (a link and a new password) from one address. */
   setPasswordPerIp: { max: 20, windowMs: 15 * MINUTE },
   /** Care-circle invitations sent for one patient, and to one e-mail address. */
-  invitesPerPatient: { max: 10, windowMs: 24 * HOUR },
+  invitesPerPatient: { max: 20, windowMs: 24 * HOUR },
   invitesPerAddress: { max: 3, windowMs: 24 * HOUR },
 } as const
 

@@ -9,10 +9,34 @@ export const emailSchema = z.string({ required_error: 'validation.email.required
   .max(254, 'validation.email.invalid')
   .email('validation.email.invalid')
 
-/** Length rules; the server also refuses commonly used passwords. */
+export const PASSWORD_MIN_LENGTH = 12
+
+/** One character, or a block of two or three, repeated all the way (case ignored): "aaaa", "abab". */
+export function isRepetitive(password: string): boolean {
+  const chars = [...password.toLowerCase()]
+  return [1, 2, 3].some(size => chars.length > size && chars.every((c, i) => c === chars[i % size]))
+}
+
+/** Each character one up, or each one down, from the one before: "abcdef", "987654", "1234567890". */
+export function isSequence(password: string): boolean {
+  const codes = [...password.toLowerCase()].map(c => c.codePointAt(0)!)
+  if (codes.length < 3) return false
+  const step = (a: number, b: number) => (a === 57 && b === 48 ? 1 : a === 48 && b === 57 ? -1 : b - a)
+  const first = step(codes[0]!, codes[1]!)
+  return (first === 1 || first === -1) && codes.every((c, i) => i === 0 || step(codes[i - 1]!, c) === first)
+}
+
+/**
+ * NIST SP 800-63B: length, no composition rules. Also refused here (client and server):
+ * one character or a short block repeated, and plain sequences. The server refuses
+ * common passwords and the user's own e-mail, name, the clinic's name and "Tidewell" as
+ * well (server/utils/password.ts).
+ */
 export const newPasswordSchema = z.string({ required_error: 'validation.password.tooShort' })
-  .min(10, 'validation.password.tooShort')
+  .min(PASSWORD_MIN_LENGTH, 'validation.password.tooShort')
   .max(128, 'validation.password.tooLong')
+  .refine(password => !isRepetitive(password), 'validation.password.repetitive')
+  .refine(password => !isSequence(password), 'validation.password.sequence')
 
 export const signInSchema = z.object({
   email: emailSchema,

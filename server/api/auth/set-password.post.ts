@@ -4,7 +4,8 @@ import { User } from '../../db/models'
 /** Sets a password from an invitation or reset link; the link works exactly once. */
 export default defineEventHandler(async (event) => {
   const { token, password } = await readValidatedBody(event, parseWith(setPasswordSchema))
-  const problems = passwordProblems(password)
+  await throttle(event, [{ scope: 'set-password:ip', key: `ip:${clientIp(event)}`, ...LIMITS.setPasswordPerIp }])
+  const problems = await passwordProblemsForLink(token, password)
   if (problems.length) {
     throw createError({ statusCode: 400, message: problems[0], data: { fieldErrors: { password: problems } } })
   }

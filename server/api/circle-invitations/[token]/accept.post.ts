@@ -10,7 +10,11 @@ import { CareGrant, CircleInvitation, User } from '../../../db/models'
 export default defineEventHandler(async (event) => {
   const raw = invitationTokenParam(event)
   const input = await readValidatedBody(event, parseWith(acceptInvitationSchema))
-  const problems = input.password === undefined ? [] : passwordProblems(input.password)
+  await throttle(event, [{ scope: 'set-password:ip', key: `ip:${clientIp(event)}`, ...LIMITS.setPasswordPerIp }])
+  // The password may not be the invited address or name (read here, the link is not spent).
+  await useDb()
+  const invited = input.password === undefined ? null : await findOpenInvitation(raw)
+  const problems = invited ? await passwordProblemsFor(input.password!, { email: invited.email, name: input.name ?? invited.name }) : []
   if (problems.length) throw createError({ statusCode: 400, message: problems[0], data: { fieldErrors: { password: problems } } })
   const passwordHash = input.password === undefined ? null : await hashPassword(input.password)
   const session = await getUserSession(event)

@@ -17,6 +17,11 @@ export default defineEventHandler(async (event) => {
       const first = await CircleInvitation.findOne({ where: { patientId: patient.id, requestId: input.requestId }, transaction })
       if (first) return { invitation: first, created: false }
     }
+    // Per patient and per invited address; a retry with a known requestId (above) is not counted.
+    await throttle(event, [
+      { scope: 'invite:patient', key: `patient:${patient.id}`, ...LIMITS.invitesPerPatient },
+      { scope: 'invite:address', key: addressKey(input.email), ...LIMITS.invitesPerAddress },
+    ], transaction)
     const account = await User.findOne({ where: { email: input.email }, transaction })
     if (account?.id === patient.userId) {
       throw createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { email: ['validation.circle.notYourself'] } } })
