@@ -8,11 +8,6 @@ import { CaughtMail } from '../db/models'
  * page. Nothing leaves the machine. It holds every reset and invitation link, so it runs
  * only in development, in the demo (NUXT_SEED_DEMO) or when NUXT_MAIL_CATCHER=true.
  */
-export function mailCatcherEnabled(): boolean {
-  const config = useRuntimeConfig()
-  return !config.smtpUrl && (import.meta.dev || Boolean(config.seedDemo) || String(config.mailCatcher) === 'true')
-}
-
 export default defineNitroPlugin((nitroApp) => {
   const config = useRuntimeConfig()
   if (!mailCatcherEnabled()) return

@@ -1,5 +1,4 @@
 import { CaughtMail } from '../../db/models'
-import { mailCatcherEnabled } from '../../plugins/02.mail-catcher'
 
 /**
  * What the local mail catcher received (development, demo or NUXT_MAIL_CATCHER=true;
