@@ -49,16 +49,20 @@ function configureEachConnection(sequelize: Sequelize) {
   const release = manager.releaseConnection.bind(manager)
   const destroy = manager.destroyConnection.bind(manager)
   let writer: Connection | undefined
-  const configured = (connection: Connection) => {
+  // synchronous = NORMAL: in WAL mode a commit no longer waits for fsync (the WAL is synced
+  // at checkpoints); a commit survives a crash of the process (kill -9), and only a power
+  // cut or an OS crash may lose the last commits (see "The write path" in DEVELOPERS.md).
+  const configured = async (connection: Connection) => {
     if (!connection.tidewellConfigured) {
       connection.configure('busyTimeout', 5000)
+      await new Promise<void>((done, fail) => connection.run('PRAGMA synchronous = NORMAL', error => (error ? fail(error) : done())))
       connection.tidewellConfigured = true
     }
     return connection
   }
   manager.getConnection = async (options) => {
     if (options?.uuid && options.uuid !== 'default' && turns.getStore()?.writer) {
-      writer ??= configured(await open({ ...options, uuid: WRITER }))
+      writer ??= await configured(await open({ ...options, uuid: WRITER }))
       return writer
     }
     return configured(await open(options))
