@@ -56,7 +56,7 @@ describe('sign-in', () => {
 })
 
 describe('lockout after repeated failures', () => {
-  it('gives 429 with Retry-After after 5 failures within 15 minutes, even for the right password, and still after a restart', async () => {
+  it('gives 429 with Retry-After after 5 failures from one address, even for the right password, and still after a restart', async () => {
     const email = 'bernard@demo.tidewell.test'
     const client = new Client(app.url)
     for (let i = 0; i < 5; i++) {
@@ -64,9 +64,10 @@ describe('lockout after repeated failures', () => {
     }
     const locked = await client.post('/api/auth/sign-in', { email, password: DEMO_PASSWORD })
     expect(locked.status).toBe(429)
+    // A growing wait, not a long lock (sign-in-limit.ts): 30 s after the fifth failure.
     const retryAfter = Number(locked.headers.get('retry-after'))
-    expect(retryAfter).toBeGreaterThan(14 * 60)
-    expect(retryAfter).toBeLessThanOrEqual(15 * 60)
+    expect(retryAfter).toBeGreaterThan(0)
+    expect(retryAfter).toBeLessThanOrEqual(30)
 
     // Another account is not affected.
     expect((await client.post('/api/auth/sign-in', { email: 'odell@demo.tidewell.test', password: DEMO_PASSWORD })).status).toBe(200)
