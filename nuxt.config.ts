@@ -51,6 +51,8 @@ export default defineNuxtConfig({
     seedDemo: false,
     seedDemoActivity: false,
     allowClockOverride: false,
+    // Encrypts second-factor secrets at rest (server/utils/totp.ts); the session password when empty.
+    totpKey: '',
     session: {
       name: 'tidewell-session',
       maxAge: 60 * 60 * 8,

@@ -9,6 +9,10 @@ declare module '#auth-utils' {
     /** Set for a patient: the record that is his own. */
     patientId: number | null
   }
+  interface SecureSessionData {
+    /** Half signed in: the password was right, the second factor is still to come (server/utils/totp.ts). */
+    secondFactor?: { userId: number, at: number }
+  }
 }
 
 export {}
