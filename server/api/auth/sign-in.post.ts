@@ -25,8 +25,11 @@ export default defineEventHandler(async (event) => {
   }
 
   await clearFailures(key, ip)
-  const patient = (user as User & { patient?: Patient | null }).patient
-  const sessionUser = { id: user.id, role: user.role, name: user.name, language: user.language, patientId: patient?.id ?? null }
-  await replaceUserSession(event, { user: sessionUser, loggedInAt: Date.now() })
-  return { user: sessionUser }
+  // Staff (and anyone who turned it on) give a code next: a half-signed-in session, no data yet (totp.ts).
+  const secondFactor = secondFactorStage(user)
+  if (secondFactor) {
+    await startSecondFactor(event, user)
+    return { user: sessionUserOf(user as User & { patient?: Patient | null }), secondFactor }
+  }
+  return { user: await completeSignIn(event, user as User & { patient?: Patient | null }), secondFactor: null }
 })
