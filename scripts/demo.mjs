@@ -5,6 +5,15 @@ import { execSync, spawn } from 'node:child_process'
 import { existsSync, mkdirSync, statSync } from 'node:fs'
 
 const root = new URL('..', import.meta.url).pathname
+// The demo staff's second-factor secret (DEMO_TOTP_SECRET in server/db/seed/demo.ts).
+const DEMO_TOTP_SECRET = 'TIDEWELLDEMOSTAFFTOTPSECRETKEY23'
+
+// npm run demo -- --code: print the demo staff's current code and stop.
+if (process.argv.includes('--code')) {
+  const { generate } = await import('otplib')
+  console.log(await generate({ secret: DEMO_TOTP_SECRET }))
+  process.exit(0)
+}
 const run = command => execSync(command, { cwd: root, stdio: 'inherit' })
 const port = process.env.PORT ?? '3000'
 const url = `http://localhost:${port}`
@@ -46,6 +55,11 @@ console.log(`
     nurse@demo.tidewell.test       Nora Lindqvist, nurse
     clinician@demo.tidewell.test   Ines Varga, clinician
     admin@demo.tidewell.test       Priya Castellanos, administrator (Mail catcher page)
+
+  Nurse, clinician and admin then give a code from an authenticator app (a second factor).
+  The demo staff share this secret; add it to the app by hand (time-based, 6 digits, 30 s):
+    ${DEMO_TOTP_SECRET}
+  or print the current code with: npm run demo -- --code
 
   Data: data/tidewell.sqlite. Stop with Ctrl+C.
 `)

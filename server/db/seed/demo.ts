@@ -14,6 +14,13 @@ import { seedDemoSchedules } from './schedule'
  */
 export const DEMO_PASSWORD = 'tidewell-demo'
 
+/**
+ * The demo staff come enrolled in the second factor with this one invented secret (Base32,
+ * 20 bytes), so the demo still works: `npm run demo` prints it (add it to an authenticator
+ * app) and `npm run demo -- --code` prints the current code. Test helpers make codes from it.
+ */
+export const DEMO_TOTP_SECRET = 'TIDEWELLDEMOSTAFFTOTPSECRETKEY23'
+
 interface DemoPerson { email: string, name: string, role: Role, language?: Language }
 
 export const DEMO_STAFF: DemoPerson[] = [
@@ -112,6 +119,11 @@ const STEPS: [string, SeedStep][] = [
     }
     for (const [email, phone] of Object.entries(DEMO_CAREGIVER_PHONES)) {
       await User.update({ phone }, { where: { email }, transaction })
+    }
+  }],
+  ['second-factor', async (transaction) => {
+    for (const person of DEMO_STAFF) {
+      await User.update({ totpSecret: encryptSecret(DEMO_TOTP_SECRET), totpEnabledAt: new Date() }, { where: { email: person.email }, transaction })
     }
   }],
 ]
