@@ -3,7 +3,7 @@ import { createRequire } from 'node:module'
 import type { Page } from 'playwright-core'
 import { inject } from 'vitest'
 import { createPage, setup, url } from '@nuxt/test-utils/e2e'
-import { DEMO_PASSWORD } from './client'
+import { DEMO_PASSWORD, totpCode } from './client'
 
 export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium'
 
@@ -31,6 +31,12 @@ export async function signInAs(email: string, password = DEMO_PASSWORD): Promise
   await page.getByLabel(/^(password|contraseña)$/i).fill(password)
   await page.getByRole('button', { name: /^(sign in|iniciar sesión)$/i }).click()
   await page.waitForURL(u => !u.pathname.startsWith('/sign-in'))
+  // Staff give a code from the demo secret on the second-factor page.
+  if (new URL(page.url()).pathname === '/second-factor') {
+    await page.getByLabel(/^(code from your app|código de su aplicación)$/i).fill(await totpCode(new URL(page.url()).origin, email))
+    await page.getByRole('button', { name: /^(continue|continuar)$/i }).click()
+    await page.waitForURL(u => !u.pathname.startsWith('/second-factor'))
+  }
   return page
 }
 

@@ -1,4 +1,31 @@
+import { generate } from 'otplib'
+
 export const DEMO_PASSWORD = 'tidewell-demo'
+/** The demo staff's second-factor secret (DEMO_TOTP_SECRET in server/db/seed/demo.ts). */
+export const DEMO_TOTP_SECRET = 'TIDEWELLDEMOSTAFFTOTPSECRETKEY23'
+
+const usedSteps = new Map<string, number>()
+
+/**
+ * A code from `secret` for a time step not yet used by this user on this server: the server
+ * accepts each step once and the steps before, at and after now (server/utils/totp.ts), so
+ * three sign-ins of one user per 30 s go straight through and a fourth waits for the next step.
+ */
+export async function totpCode(baseUrl: string, email: string, secret = DEMO_TOTP_SECRET): Promise<string> {
+  const key = `${baseUrl} ${email}`
+  for (;;) {
+    const now = Date.now() / 1000
+    const current = Math.floor(now / 30)
+    let step = Math.max(current - 1, (usedSteps.get(key) ?? -Infinity) + 1)
+    // The step before now stops being accepted when the next step starts: not near its end.
+    if (step === current - 1 && now - current * 30 > 25) step = current
+    if (step <= current + 1) {
+      usedSteps.set(key, step)
+      return generate({ secret, epoch: step * 30 })
+    }
+    await new Promise(resolve => setTimeout(resolve, ((step - 1) * 30 - now) * 1000 + 100))
+  }
+}
 
 export interface Reply<T = any> { // eslint-disable-line @typescript-eslint/no-explicit-any
   status: number
@@ -16,6 +43,12 @@ export class Client {
     const client = new Client(baseUrl)
     const reply = await client.post('/api/auth/sign-in', { email, password })
     if (reply.status !== 200) throw new Error(`sign-in for ${email} answered ${reply.status}`)
+    // Staff give a code next (the demo staff share DEMO_TOTP_SECRET).
+    if (reply.body.secondFactor === 'verify') {
+      const second = await client.post('/api/auth/totp/verify', { code: await totpCode(baseUrl, email) })
+      if (second.status !== 200) throw new Error(`second factor for ${email} answered ${second.status}`)
+    }
+    else if (reply.body.secondFactor) throw new Error(`${email} must enrol a second factor first`)
     return client
   }
 
