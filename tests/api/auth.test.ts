@@ -101,7 +101,7 @@ describe('invitations and password resets', () => {
     const token = link.searchParams.get('token')!
 
     const visitor = new Client(app.url)
-    const common = await visitor.post('/api/auth/set-password', { token, password: 'password123' })
+    const common = await visitor.post('/api/auth/set-password', { token, password: 'password1234' })
     expect(common.status).toBe(400)
     expect(common.body.data.fieldErrors.password).toContain('validation.password.common')
 

@@ -57,7 +57,7 @@ describe('inviting a caregiver who is new to Tidewell', () => {
       canLogDiary: true, canManageAppointments: false, account: 'new', signedInAsInvitee: false,
     })
 
-    const common = await visitor.post(`/api/circle-invitations/${token}/accept`, { name: 'Adaeze Osei-Mensah', password: 'password123' })
+    const common = await visitor.post(`/api/circle-invitations/${token}/accept`, { name: 'Adaeze Osei-Mensah', password: 'password1234' })
     expect(common.status).toBe(400)
     expect(common.body.data.fieldErrors.password).toContain('validation.password.common')
     const missing = await visitor.post(`/api/circle-invitations/${token}/accept`, {})
