@@ -74,7 +74,8 @@ export async function matchCode(secret: string, code: string, after: number | nu
   if (!/^\d{6}$/.test(code)) return null
   try {
     const result = await verify({ secret, token: code, epoch, epochTolerance: 30, ...(after === null ? {} : { afterTimeStep: after }) })
-    return result.valid ? result.timeStep : null
+    // otplib's verify is typed as the HOTP or TOTP result; only the TOTP one has timeStep.
+    return result.valid && 'timeStep' in result && typeof result.timeStep === 'number' ? result.timeStep : null
   }
   catch {
     // afterTimeStep beyond the window (the last code was from the step after now): nothing left to accept.
@@ -96,7 +97,7 @@ export function tooManyCodes(event: H3Event, seconds: number) {
 }
 
 export function wrongCode() {
-  return createError({ statusCode: 401, message: 'errors.codeWrong', data: { fieldErrors: { code: ['errors.codeWrong'] } } })
+  return createError({ statusCode: 401, message: 'errors.codeWrong', data: { fieldErrors: { code: ['validation.code.wrong'] } } })
 }
 
 // Recovery codes: no 0/O, 1/I/L, so they can be read off paper.
