@@ -1,3 +1,6 @@
+import { readFileSync, renameSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
 import { generate } from 'otplib'
 
 export const DEMO_PASSWORD = 'tidewell-demo'
@@ -5,6 +8,26 @@ export const DEMO_PASSWORD = 'tidewell-demo'
 export const DEMO_TOTP_SECRET = 'TIDEWELLDEMOSTAFFTOTPSECRETKEY23'
 
 const usedSteps = new Map<string, number>()
+
+// Test files run in workers of their own, and the browser tests share one server: the steps
+// used on a server (by its address) are kept in a file too, so a second file signing the same
+// nurse in within 30 s does not send a code the server already took.
+const STEPS_FILE = join(tmpdir(), 'tidewell-test-totp-steps.json')
+function stepsOnFile(): Record<string, number> {
+  try {
+    return JSON.parse(readFileSync(STEPS_FILE, 'utf8')) as Record<string, number>
+  }
+  catch {
+    return {}
+  }
+}
+function keepStepOnFile(key: string, step: number) {
+  const steps = stepsOnFile()
+  steps[key] = Math.max(steps[key] ?? -Infinity, step)
+  const temporary = `${STEPS_FILE}.${process.pid}`
+  writeFileSync(temporary, JSON.stringify(steps))
+  renameSync(temporary, STEPS_FILE)
+}
 
 /**
  * A code from `secret` for a time step not yet used by this user on this server: the server
@@ -14,14 +37,17 @@ const usedSteps = new Map<string, number>()
 export async function totpCode(baseUrl: string, email: string, secret = DEMO_TOTP_SECRET): Promise<string> {
   // Host without port: a test may restart a server on the same database at another port.
   const key = `${new URL(baseUrl).hostname} ${email}`
+  const serverKey = `${new URL(baseUrl).origin} ${email}`
   for (;;) {
     const now = Date.now() / 1000
     const current = Math.floor(now / 30)
-    let step = Math.max(current - 1, (usedSteps.get(key) ?? -Infinity) + 1)
+    const lastUsed = Math.max(usedSteps.get(key) ?? -Infinity, stepsOnFile()[serverKey] ?? -Infinity)
+    let step = Math.max(current - 1, lastUsed + 1)
     // The step before now stops being accepted when the next step starts: not near its end.
     if (step === current - 1 && now - current * 30 > 25) step = current
     if (step <= current + 1) {
       usedSteps.set(key, step)
+      keepStepOnFile(serverKey, step)
       return generate({ secret, epoch: step * 30 })
     }
     await new Promise(resolve => setTimeout(resolve, ((step - 1) * 30 - now) * 1000 + 100))
