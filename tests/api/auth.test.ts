@@ -119,9 +119,11 @@ describe('invitations and password resets', () => {
     expect(reply.body.data.fieldErrors.email).toEqual(['validation.alreadyExists'])
   })
 
-  it('a nurse may create a patient but not an admin', async () => {
+  it('a nurse may create a patient but no staff account (admin, clinician or nurse)', async () => {
     const nurse = await Client.signIn(app.url, 'nurse@demo.tidewell.test')
     expect((await nurse.post('/api/users', { email: 'boss@demo.tidewell.test', name: 'Boss', role: 'admin' })).status).toBe(403)
+    expect((await nurse.post('/api/users', { email: 'doc@demo.tidewell.test', name: 'Doc', role: 'clinician' })).status).toBe(403)
+    expect((await nurse.post('/api/users', { email: 'rn@demo.tidewell.test', name: 'Rn', role: 'nurse' })).status).toBe(403)
     const ok = await nurse.post('/api/users', { email: 'p2@demo.tidewell.test', name: 'Quentin Aldous', role: 'patient', patient: { clinicNumber: 'LPU-2002', dateOfBirth: '1949-02-28' } })
     expect(ok.status).toBe(201)
   })

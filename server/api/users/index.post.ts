@@ -6,7 +6,8 @@ import { Patient, User } from '../../db/models'
 /** Which roles each staff role may create: only an admin creates another admin. */
 const MAY_CREATE: Partial<Record<Role, Role[]>> = {
   admin: ['patient', 'caregiver', 'nurse', 'clinician', 'admin'],
-  nurse: ['patient', 'caregiver', 'nurse', 'clinician'],
+  // A nurse registers the people she cares for; staff accounts are an admin's to make.
+  nurse: ['patient', 'caregiver'],
 }
 
 /** Staff create an account; the person gets an invitation e-mail to set a password (72 h). */
