@@ -109,9 +109,9 @@ export async function takeHits(rules: ThrottleRule[], transaction?: Transaction,
 }
 
 /** 429 errors.tooManyAttempts with Retry-After (seconds), as every throttled route answers. */
-export function tooManyAttempts(event: H3Event, seconds: number) {
+export function tooManyAttempts(event: H3Event, seconds: number, message = 'errors.tooManyAttempts') {
   setResponseHeader(event, 'Retry-After', seconds)
-  return createError({ statusCode: 429, message: 'errors.tooManyAttempts', data: { retryAfter: seconds } })
+  return createError({ statusCode: 429, message, data: { retryAfter: seconds } })
 }
 
 /** Counts the request against the rules and throws 429 when one is full. */

@@ -1,6 +1,6 @@
 import { createCipheriv, createDecipheriv, createHash, randomBytes, randomInt, timingSafeEqual } from 'node:crypto'
 import type { H3Event } from 'h3'
-import { createError, setResponseHeader } from 'h3'
+import { createError } from 'h3'
 import { generateSecret, generateURI, verify } from 'otplib'
 import QRCode from 'qrcode'
 import { Op } from 'sequelize'
@@ -8,6 +8,8 @@ import type { Transaction } from 'sequelize'
 import type { User as SessionUser } from '#auth-utils'
 import type { Role } from '../../shared/types/roles'
 import { Patient, TotpRecoveryCode, User } from '../db/models'
+import { progressiveDelayS } from './sign-in-limit'
+import { tooManyAttempts } from './throttle'
 
 /*
  * The second factor (issue 11): TOTP (RFC 6238: SHA-1, 6 digits, 30 s steps, what every
@@ -86,14 +88,13 @@ export async function matchCode(secret: string, code: string, after: number | nu
 /** Seconds to wait before the next code may be tried (0 = now). */
 export function codeWaitS(user: Pick<User, 'totpFailures' | 'totpFailedAt'>, now = new Date()): number {
   const failures = user.totpFailures ?? 0
-  if (failures < CODE_THROTTLE.free || !user.totpFailedAt) return 0
-  const delay = Math.min(CODE_THROTTLE.baseS * 2 ** Math.min(failures - CODE_THROTTLE.free, 20), CODE_THROTTLE.capS)
+  const delay = progressiveDelayS(failures, CODE_THROTTLE)
+  if (!delay || !user.totpFailedAt) return 0
   return Math.max(0, Math.ceil((new Date(user.totpFailedAt).getTime() + delay * 1000 - now.getTime()) / 1000))
 }
 
 export function tooManyCodes(event: H3Event, seconds: number) {
-  setResponseHeader(event, 'Retry-After', seconds)
-  return createError({ statusCode: 429, message: 'errors.tooManyCodes', data: { retryAfter: seconds } })
+  return tooManyAttempts(event, seconds, 'errors.tooManyCodes')
 }
 
 export function wrongCode() {
