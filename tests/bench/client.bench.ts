@@ -119,7 +119,7 @@ describe('first-load JavaScript and Lighthouse on the patient pages', () => {
     // One sign-in through the API (sign-ins are rate limited); its cookie opens every signed-in page.
     const signIn = await fetch(`${app.url}/api/auth/sign-in`, {
       method: 'POST',
-      headers: { 'content-type': 'application/json' },
+      headers: { 'content-type': 'application/json', 'origin': new URL(app.url).origin },
       body: JSON.stringify({ email: PATIENT, password: DEMO_PASSWORD }),
     })
     const setCookie = signIn.headers.getSetCookie().find(line => line.startsWith(`${SESSION_COOKIE}=`))

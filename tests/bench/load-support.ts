@@ -90,7 +90,7 @@ export async function load(options: {
 export async function sessionCookie(baseUrl: string, email: string, password = DEMO_PASSWORD): Promise<string> {
   const response = await fetch(new URL('/api/auth/sign-in', baseUrl), {
     method: 'POST',
-    headers: { 'content-type': 'application/json' },
+    headers: { 'content-type': 'application/json', 'origin': new URL(baseUrl).origin },
     body: JSON.stringify({ email, password }),
   })
   const body = await response.json().catch(() => ({}))
@@ -136,15 +136,19 @@ export async function signInAll(baseUrl: string, emails: string[]): Promise<{ em
   return people
 }
 
-/** Requests that each send a whole diary with a fresh draft id, taking the writers in turn. */
-export function diaryWrites(writers: { cookie: string, patientId: number }[], body: (n: number) => object): () => AutocannonRequest {
+/**
+ * Requests that each send a whole diary with a fresh draft id, taking the writers in turn,
+ * with the Origin a browser on `baseUrl` sends (server/middleware/01.request-guard.ts).
+ */
+export function diaryWrites(baseUrl: string, writers: { cookie: string, patientId: number }[], body: (n: number) => object): () => AutocannonRequest {
+  const origin = new URL(baseUrl).origin
   let n = 0
   return () => {
     const writer = writers[n % writers.length]!
     const request = {
       method: 'POST',
       path: `/api/patients/${writer.patientId}/diary`,
-      headers: { 'content-type': 'application/json', 'cookie': writer.cookie },
+      headers: { 'content-type': 'application/json', 'origin': origin, 'cookie': writer.cookie },
       body: JSON.stringify({ ...body(n), draftId: randomUUID() }),
     }
     n++

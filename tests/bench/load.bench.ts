@@ -65,7 +65,7 @@ describe('load: the built server under many clients (autocannon, loopback)', () 
     }
     const first = await fetch(url(`/api/patients/${patient.patientId}/diary`), {
       method: 'POST',
-      headers: { 'content-type': 'application/json', cookie: patient.cookie },
+      headers: { 'content-type': 'application/json', 'origin': new URL(app.url).origin, 'cookie': patient.cookie },
       body: JSON.stringify({ ...QUIET, draftId: crypto.randomUUID() }),
     })
     await first.arrayBuffer()
@@ -80,7 +80,7 @@ describe('load: the built server under many clients (autocannon, loopback)', () 
       { url: url('/today'), headers: asPatient },
       { url: url(schedulePath), headers: asPatient },
       { url: url('/api/triage'), headers: { cookie: nurseCookie } },
-      { url: app.url, next: diaryWrites(writers, diaryBody) },
+      { url: app.url, next: diaryWrites(app.url, writers, diaryBody) },
     ]) {
       const warm = await load({ label: 'warm-up', connections: 10, seconds: 1, ...run })
       if (run.next) acknowledged += warm.ok
@@ -92,12 +92,12 @@ describe('load: the built server under many clients (autocannon, loopback)', () 
 
     const diary: LoadFigures[] = []
     for (const connections of [1, 10, 50]) {
-      diary.push(await load({ label: `POST /api/patients/:id/diary`, url: app.url, connections, next: diaryWrites(writers, diaryBody) }))
+      diary.push(await load({ label: `POST /api/patients/:id/diary`, url: app.url, connections, next: diaryWrites(app.url, writers, diaryBody) }))
     }
 
     const queueIdle = await readerTimings(url('/api/triage'), nurseCookie)
     const [underLoad, queueBusy] = await Promise.all([
-      load({ label: 'POST diary beside the nurse\'s queue', url: app.url, connections: 50, seconds: 2 * RUN_S, next: diaryWrites(writers, diaryBody) }),
+      load({ label: 'POST diary beside the nurse\'s queue', url: app.url, connections: 50, seconds: 2 * RUN_S, next: diaryWrites(app.url, writers, diaryBody) }),
       readerTimings(url('/api/triage'), nurseCookie, 2 * RUN_S),
     ])
     acknowledged += diary.reduce((sum, run) => sum + run.ok, 0) + underLoad.ok

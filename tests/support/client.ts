@@ -79,12 +79,18 @@ export class Client {
     return client
   }
 
+  /**
+   * Sends like a browser on a Tidewell page: JSON, and on every non-GET request an Origin of
+   * the server's own (server/middleware/01.request-guard.ts refuses others); `headers` may
+   * override either.
+   */
   async request(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Reply> {
     const response = await fetch(new URL(path, this.baseUrl), {
       method,
       headers: {
+        ...(method === 'GET' || method === 'HEAD' ? {} : { origin: new URL(this.baseUrl).origin }),
         ...(body === undefined ? {} : { 'content-type': 'application/json' }),
-        ...(this.cookies.size ? { cookie: [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ') } : {}),
+        ...(this.cookies.size ? { cookie: this.cookieHeader() } : {}),
         ...headers,
       },
       body: body === undefined ? undefined : JSON.stringify(body),
@@ -100,6 +106,11 @@ export class Client {
     let parsed: unknown = text
     if ((response.headers.get('content-type') ?? '').includes('json') && text) parsed = JSON.parse(text)
     return { status: response.status, headers: response.headers, body: parsed }
+  }
+
+  /** The session cookie as a `cookie` header value, for a test that sends a request by hand. */
+  cookieHeader(): string {
+    return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
   }
 
   get(path: string) {
