@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { LANGUAGES, ROLES } from '../types/roles'
+import { safeText, UNSAFE_TEXT_MESSAGE } from './text'
 
 // Error messages are locale keys; the client translates them at the field.
 export const emailSchema = z.string({ required_error: 'validation.email.required' })
@@ -26,6 +27,10 @@ export function isSequence(password: string): boolean {
   return (first === 1 || first === -1) && codes.every((c, i) => i === 0 || step(codes[i - 1]!, c) === first)
 }
 
+// A password may hold any printable character (spaces, symbols, any script), never NUL or a control character.
+// eslint-disable-next-line no-control-regex
+const NO_CONTROL_CHARACTERS = /^[^\u0000-\u001F\u007F-\u009F]*$/
+
 /**
  * NIST SP 800-63B: length, no composition rules. Also refused here (client and server):
  * one character or a short block repeated, and plain sequences. The server refuses
@@ -35,6 +40,7 @@ export function isSequence(password: string): boolean {
 export const newPasswordSchema = z.string({ required_error: 'validation.password.tooShort' })
   .min(PASSWORD_MIN_LENGTH, 'validation.password.tooShort')
   .max(128, 'validation.password.tooLong')
+  .regex(NO_CONTROL_CHARACTERS, UNSAFE_TEXT_MESSAGE)
   .refine(password => !isRepetitive(password), 'validation.password.repetitive')
   .refine(password => !isSequence(password), 'validation.password.sequence')
 
@@ -58,11 +64,11 @@ export const isoDateSchema = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'validation
 
 export const createUserSchema = z.object({
   email: emailSchema,
-  name: z.string().trim().min(1, 'validation.name.required').max(120, 'validation.name.tooLong'),
+  name: safeText().trim().min(1, 'validation.name.required').max(120, 'validation.name.tooLong'),
   role: z.enum(ROLES),
   language: z.enum(LANGUAGES).default('en'),
   patient: z.object({
-    clinicNumber: z.string().trim().min(1, 'validation.clinicNumber.required').max(32, 'validation.clinicNumber.invalid'),
+    clinicNumber: safeText().trim().min(1, 'validation.clinicNumber.required').max(32, 'validation.clinicNumber.invalid'),
     dateOfBirth: isoDateSchema,
   }).strict().optional(),
 }).strict().superRefine((value, ctx) => {

@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { LANGUAGES } from '../types/roles'
 import { emailSchema, isoDateSchema, newPasswordSchema } from './auth'
 import { requestIdSchema } from './request-id'
+import { idString, safeText } from './text'
 
 // Error messages are locale keys; the client translates them at the field.
 
@@ -19,7 +20,7 @@ export const circlePermissionsSchema = z.object({
  * again returns the invitation the first try stored.
  */
 export const circleInviteSchema = z.object({
-  name: z.string({ required_error: 'validation.name.required' }).trim().min(1, 'validation.name.required').max(120, 'validation.name.tooLong')
+  name: safeText({ required_error: 'validation.name.required' }).trim().min(1, 'validation.name.required').max(120, 'validation.name.tooLong')
     .refine(name => !/https?:|www\.|[<>]/i.test(name), 'validation.circle.nameNoLinks'),
   email: emailSchema,
   language: z.enum(LANGUAGES).default('en'),
@@ -33,26 +34,25 @@ export const circleInviteSchema = z.object({
  * password; one who already has an account sends nothing and must be signed in.
  */
 export const acceptInvitationSchema = z.object({
-  name: z.string().trim().min(1, 'validation.name.required').max(120, 'validation.name.tooLong').optional(),
+  name: safeText().trim().min(1, 'validation.name.required').max(120, 'validation.name.tooLong').optional(),
   password: newPasswordSchema.optional(),
 }).strict()
 
-const positiveId = z.coerce.number({ invalid_type_error: 'validation.generic.invalid_type' }).int().positive().max(2 ** 31)
 const emptyAsUndefined = (value: unknown) => (value === '' ? undefined : value)
 
 /** Filters of the admin audit page and its CSV export (query string). */
 export const auditQuerySchema = z.object({
-  actor: z.preprocess(emptyAsUndefined, positiveId.optional()),
-  patient: z.preprocess(emptyAsUndefined, positiveId.optional()),
-  action: z.preprocess(emptyAsUndefined, z.string().trim().max(64).regex(/^[a-z0-9.-]+$/, 'validation.generic.invalid').optional()),
+  actor: idString({ optional: true }),
+  patient: idString({ optional: true }),
+  action: z.preprocess(emptyAsUndefined, safeText().trim().max(64).regex(/^[a-z0-9.-]+$/, 'validation.generic.invalid').optional()),
   outcome: z.preprocess(emptyAsUndefined, z.enum(['allowed', 'denied']).optional()),
   from: z.preprocess(emptyAsUndefined, isoDateSchema.optional()),
   to: z.preprocess(emptyAsUndefined, isoDateSchema.optional()),
-  page: z.preprocess(emptyAsUndefined, positiveId.default(1)),
+  page: idString({ fallback: 1, max: 10_000 }),
 }).strict().refine(v => !v.from || !v.to || v.from <= v.to, { path: ['to'], message: 'validation.audit.toBeforeFrom' })
 
 export const pageQuerySchema = z.object({
-  page: z.preprocess(emptyAsUndefined, positiveId.default(1)),
+  page: idString({ fallback: 1, max: 10_000 }),
 }).strict()
 
 export type CircleInviteInput = z.infer<typeof circleInviteSchema>

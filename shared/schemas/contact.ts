@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { safeText } from './text'
 
 /*
  * How the care team reaches a man: his phone numbers (up to three), the best times to call
@@ -17,12 +18,6 @@ export type ContactPreference = (typeof CONTACT_PREFERENCES)[number]
 export const MAX_PHONES = 3
 export const BEST_TIMES_MAX_LENGTH = 200
 
-/** Control characters (NUL, tabs, new lines, escapes) never belong in a one-line field. */
-// eslint-disable-next-line no-control-regex
-const CONTROL_CHARACTERS = /[\u0000-\u001F\u007F-\u009F]/g
-
-const oneLine = (value: unknown) => (typeof value === 'string' ? value.replace(CONTROL_CHARACTERS, '').trim() : value)
-
 /*
  * A phone number as people write it: digits with spaces, dots, dashes and brackets, an
  * optional leading + and an optional extension ("x 12", "ext. 12"). Between 7 and 15
@@ -36,11 +31,13 @@ function digitsBeforeExtension(value: string): number {
   return value.split(/x|ext/i)[0]!.replace(/\D/g, '').length
 }
 
-export const phoneNumberSchema = z.preprocess(oneLine, z.string({ required_error: message('phoneRequired'), invalid_type_error: message('phoneInvalid') })
+/** Control and bidi characters are refused (validation.text.unsafe), not silently taken out. */
+export const phoneNumberSchema = safeText({ required_error: message('phoneRequired'), invalid_type_error: message('phoneInvalid') })
+  .trim()
   .min(1, message('phoneRequired'))
   .max(40, message('phoneInvalid'))
   .regex(PHONE_PATTERN, message('phoneInvalid'))
-  .refine(value => digitsBeforeExtension(value) >= MIN_DIGITS && digitsBeforeExtension(value) <= MAX_DIGITS, message('phoneInvalid')))
+  .refine(value => digitsBeforeExtension(value) >= MIN_DIGITS && digitsBeforeExtension(value) <= MAX_DIGITS, message('phoneInvalid'))
 
 export const patientPhoneSchema = z.object({
   label: z.enum(PHONE_LABELS, { errorMap: () => ({ message: message('phoneLabel') }) }),
@@ -52,8 +49,9 @@ export type PatientPhone = z.infer<typeof patientPhoneSchema>
 export const patientContactSchema = z.object({
   phones: z.array(patientPhoneSchema, { required_error: message('phones'), invalid_type_error: message('phones') })
     .max(MAX_PHONES, message('tooManyPhones')),
-  bestTimes: z.preprocess(oneLine, z.string({ invalid_type_error: message('bestTimes') })
-    .max(BEST_TIMES_MAX_LENGTH, message('bestTimesTooLong'))),
+  bestTimes: safeText({ invalid_type_error: message('bestTimes') })
+    .trim()
+    .max(BEST_TIMES_MAX_LENGTH, message('bestTimesTooLong')),
   preferred: z.enum(CONTACT_PREFERENCES, { errorMap: () => ({ message: message('preferred') }) }),
 }).strict(message('unknownField'))
 export type PatientContact = z.infer<typeof patientContactSchema>

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { FATIGUE_LEVELS, HOT_FLUSH_INTERFERENCE, HOT_FLUSH_SEVERITIES } from '../clinical/scores'
 import { PAIN_LOCATIONS, RIGHT_NOW_ITEMS } from '../clinical/triage'
+import { safeText } from './text'
 
 /*
  * The weekly diary entry: one schema for the form (vee-validate through toTypedSchema)
@@ -197,7 +198,7 @@ export const diaryEntrySchema = section({
     feverOrSpreadingRednessOrPus: yesNo,
   }),
   /** Free text, stored and shown as text, never as HTML. */
-  note: z.string({ invalid_type_error: message('noteText') })
+  note: safeText({ multiLine: true, invalid_type_error: message('noteText') })
     .max(NOTE_MAX_LENGTH, message('noteTooLong'))
     .optional(),
 })

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { TESTOSTERONE_UNITS } from '../clinical/lab-triage'
 import { isoDateSchema } from './auth'
+import { safeText } from './text'
 
 /*
  * Staff: enter one lab or ECG result. One shape per kind (discriminated on `kind`), used
@@ -12,10 +13,22 @@ import { isoDateSchema } from './auth'
 
 const message = (key: string) => `validation.labs.${key}`
 
-/** A number from a form field (an empty field is "not answered"; a decimal comma is accepted). */
+/** What a typed decimal may look like: digits, with one decimal point or comma. */
+const DECIMAL = /^\d{1,6}([.,]\d{1,6})?$/
+
+/**
+ * A number, or the text of a form field holding a plain decimal (an empty field is "not
+ * answered"; a decimal comma is accepted). Nothing else becomes a number: true, "1e3",
+ * "0x1" and "Infinity" are refused.
+ */
 const measured = (min: number, max: number) => z.preprocess(
-  value => (typeof value === 'string' ? value.trim().replace(',', '.') || undefined : value ?? undefined),
-  z.coerce.number({ required_error: message('valueRequired'), invalid_type_error: message('valueRequired') })
+  (value) => {
+    if (typeof value !== 'string') return value ?? undefined
+    const typed = value.trim()
+    if (typed === '') return undefined
+    return DECIMAL.test(typed) ? Number(typed.replace(',', '.')) : typed
+  },
+  z.number({ required_error: message('valueRequired'), invalid_type_error: message('valueRequired') })
     .finite(message('valueRequired'))
     .min(min, message('valueOutOfRange'))
     .max(max, message('valueOutOfRange')),
@@ -23,7 +36,7 @@ const measured = (min: number, max: number) => z.preprocess(
 
 const EARLIEST = '2000-01-01'
 
-const note = z.string().trim().max(500, message('noteTooLong')).optional().transform(value => value || undefined)
+const note = safeText({ multiLine: true }).trim().max(500, message('noteTooLong')).optional().transform(value => value || undefined)
 
 export function labResultSchema(today: string) {
   const takenOn = z.string({ required_error: message('dateRequired'), invalid_type_error: message('dateRequired') })

@@ -3,6 +3,7 @@ import { SITES } from '../clinical/schedule'
 import { CHANGE_DECISIONS } from '../scheduling/types'
 import { isoDateSchema } from './auth'
 import { requestIdSchema } from './request-id'
+import { idNumber, safeText } from './text'
 
 /*
  * The injection-schedule forms: one schema per form, used by vee-validate (toTypedSchema)
@@ -30,16 +31,14 @@ const clockTime = z.string({ required_error: message('timeRequired') })
   .min(1, message('timeRequired'))
   .regex(/^([01]\d|2[0-3]):[0-5]\d$/, message('timeInvalid'))
 
-const optionalNote = z.string().trim().max(500, message('noteTooLong')).optional().transform(value => value || undefined)
+const optionalNote = safeText({ multiLine: true }).trim().max(500, message('noteTooLong')).optional().transform(value => value || undefined)
 
-const place = z.string({ required_error: message('placeRequired') }).trim()
+const place = safeText({ required_error: message('placeRequired') }).trim()
   .min(1, message('placeRequired'))
   .max(160, message('placeTooLong'))
 
-/** A record id from a <select> (its value may arrive as text). */
-const positiveId = (required: string) => z.coerce.number({ required_error: message(required), invalid_type_error: message(required) })
-  .int(message(required))
-  .positive(message(required))
+/** A record id from a <select> (its options carry numbers; text or true is refused). */
+const positiveId = (required: string) => idNumber(message(required))
 
 /** Staff: record one injection that was given (never one in the future). */
 export function recordInjectionSchema(today: string) {
@@ -47,7 +46,7 @@ export function recordInjectionSchema(today: string) {
     date: date('dateRequired', value => value <= today, 'futureDate'),
     time: clockTime,
     site: z.enum(SITES, { errorMap: () => ({ message: message('siteRequired') }) }),
-    lotNumber: z.string({ required_error: message('lotRequired') }).trim()
+    lotNumber: safeText({ required_error: message('lotRequired') }).trim()
       .min(1, message('lotRequired'))
       .max(40, message('lotInvalid'))
       .regex(/^$|^[A-Za-z0-9][A-Za-z0-9 ./-]*$/, message('lotInvalid')),
@@ -69,10 +68,10 @@ export const setRegimenSchema = z.object({
 
 /** Admins and clinicians: a regimen of the clinic's own. */
 export const createRegimenSchema = z.object({
-  name: z.string({ required_error: message('regimenNameRequired') }).trim()
+  name: safeText({ required_error: message('regimenNameRequired') }).trim()
     .min(2, message('regimenNameRequired'))
     .max(60, message('regimenNameTooLong')),
-  intervalDays: z.coerce.number({ required_error: message('intervalRange'), invalid_type_error: message('intervalRange') })
+  intervalDays: z.number({ required_error: message('intervalRange'), invalid_type_error: message('intervalRange') })
     .int(message('intervalRange')).min(7, message('intervalRange')).max(366, message('intervalRange')),
 }).strict()
 
@@ -86,9 +85,9 @@ export function scheduleAppointmentSchema(today: string) {
     date: date('dateRequired', value => value >= today, 'pastDate'),
     time: clockTime,
     place,
-    durationMinutes: z.coerce.number({ invalid_type_error: message('durationRange') }).int(message('durationRange'))
+    durationMinutes: z.number({ invalid_type_error: message('durationRange') }).int(message('durationRange'))
       .min(5, message('durationRange')).max(240, message('durationRange')).default(30),
-    replaces: z.number({ invalid_type_error: 'validation.generic.invalid' }).int('validation.generic.invalid').positive('validation.generic.invalid').nullable().optional(),
+    replaces: idNumber().nullable().optional(),
   }).strict()
 }
 
@@ -128,7 +127,7 @@ export function answerChangeRequestSchema(today: string) {
     date: optionalDate(value => value >= today, 'pastDate'),
     time: z.string().optional().transform(value => value || undefined)
       .pipe(z.string().regex(/^([01]\d|2[0-3]):[0-5]\d$/, message('timeInvalid')).optional()),
-    place: z.string().trim().max(160, message('placeTooLong')).optional().transform(value => value || undefined),
+    place: safeText().trim().max(160, message('placeTooLong')).optional().transform(value => value || undefined),
     note: optionalNote,
   }).strict().superRefine((value, ctx) => {
     if (value.decision !== 'move') return

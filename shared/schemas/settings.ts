@@ -1,11 +1,12 @@
 import { z } from 'zod'
+import { safeText } from './text'
 
 const email = z.string().trim().toLowerCase().email('validation.email.invalid')
 const days = (max: number) => z.number({ invalid_type_error: 'validation.settings.number' }).int('validation.settings.number').min(0, 'validation.settings.range').max(max, 'validation.settings.range')
 
 /** Clinic settings an admin may change (the defaults live in server/utils/settings.ts). */
 export const clinicSettingsSchema = z.object({
-  clinicName: z.string().trim().min(1, 'validation.settings.required').max(120, 'validation.settings.tooLong'),
+  clinicName: safeText().trim().min(1, 'validation.settings.required').max(120, 'validation.settings.tooLong'),
   timeZone: z.string().refine((zone) => {
     try {
       new Intl.DateTimeFormat('en-US', { timeZone: zone })

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { safeText } from './text'
 
 /** A code from the authenticator app: six digits (spaces typed between them are dropped). */
 export const totpCodeSchema = z.string({ required_error: 'validation.code.required' })
@@ -11,7 +12,7 @@ export const totpConfirmSchema = z.object({ code: totpCodeSchema }).strict()
 /** POST /api/auth/totp/verify: a code from the app, or one recovery code instead. */
 export const totpVerifySchema = z.union([
   z.object({ code: totpCodeSchema }).strict(),
-  z.object({ recoveryCode: z.string().trim().min(10, 'validation.recoveryCode.invalid').max(20, 'validation.recoveryCode.invalid') }).strict(),
+  z.object({ recoveryCode: safeText().trim().min(10, 'validation.recoveryCode.invalid').max(20, 'validation.recoveryCode.invalid') }).strict(),
 ])
 
 /** GET /api/auth/totp/status. */

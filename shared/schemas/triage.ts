@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { LEVELS } from '../clinical/triage'
+import { idNumber, intQuery, safeText } from './text'
 
 export const TRIAGE_SOURCES = ['diary', 'overdue-injection', 'lab'] as const
 export type TriageSource = (typeof TRIAGE_SOURCES)[number]
@@ -18,14 +19,14 @@ export const TRIAGE_EVENT_TYPES = [
 ] as const
 export type TriageEventType = (typeof TRIAGE_EVENT_TYPES)[number]
 
-const note = z.string().trim().min(1, 'validation.triage.noteRequired').max(2000, 'validation.triage.noteTooLong')
-const optionalNote = z.string().trim().max(2000, 'validation.triage.noteTooLong').optional()
+const note = safeText({ multiLine: true }).trim().min(1, 'validation.triage.noteRequired').max(2000, 'validation.triage.noteTooLong')
+const optionalNote = safeText({ multiLine: true }).trim().max(2000, 'validation.triage.noteTooLong').optional()
 
 /** What a nurse or clinician can record on an item: one body shape per event type. */
 export const triageActionSchema = z.discriminatedUnion('type', [
   // `from`: the assignee the nurse saw (null: nobody). When given, the claim holds only if the
   // item still has that assignee, so of two nurses taking one item at once only one wins.
-  z.object({ type: z.literal('claim'), from: z.number().int().positive().nullable().optional() }).strict(),
+  z.object({ type: z.literal('claim'), from: idNumber().nullable().optional() }).strict(),
   z.object({ type: z.literal('note'), note }).strict(),
   z.object({ type: z.literal('call'), reached: z.boolean(), note: optionalNote }).strict(),
   z.object({ type: z.literal('message'), note }).strict(),
@@ -41,7 +42,7 @@ export const triageQuerySchema = z.object({
   level: z.enum(LEVELS).optional(),
   status: z.enum([...TRIAGE_STATUSES, 'open'] as const).default('open'),
   assignee: z.enum(['me', 'anyone', 'nobody']).default('anyone'),
-  q: z.string().trim().max(100).optional(),
-  page: z.coerce.number().int().min(1).max(10_000).default(1),
-  pageSize: z.coerce.number().int().min(1).max(100).default(50),
+  q: safeText().trim().max(100).optional(),
+  page: intQuery({ min: 1, max: 10_000, fallback: 1 }),
+  pageSize: intQuery({ min: 1, max: 100, fallback: 50 }),
 }).strict()

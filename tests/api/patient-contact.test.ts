@@ -105,7 +105,7 @@ describe('GET|PUT /api/patients/:id/contact', () => {
     expect((await patient.get(`/api/patients/${ids['LPU-1002']}/contact`)).status).toBe(404)
   })
 
-  it('refuses a number that is not one, more than three, a bad label or preference; strips control characters', async () => {
+  it('refuses a number that is not one, more than three, a bad label or preference, or control characters', async () => {
     const id = ids['LPU-1011']!
     const patient = await Client.signIn(app.url, 'howard@demo.tidewell.test')
     const bad = [
@@ -123,9 +123,13 @@ describe('GET|PUT /api/patients/:id/contact', () => {
       expect(reply.status, field).toBe(400)
       expect(Object.keys(reply.body.data.fieldErrors), field).toContain(field)
     }
-    const cleaned = await patient.put(`/api/patients/${id}/contact`, { phones: [{ label: 'home', number: '(207) 555\u0000-0114\n' }], bestTimes: '\u0007Mornings\u0000', preferred: 'email' })
-    expect(cleaned.status).toBe(200)
-    expect(cleaned.body).toEqual({ phones: [{ label: 'home', number: '(207) 555-0114' }], bestTimes: 'Mornings', preferred: 'email' })
+    const hidden = await patient.put(`/api/patients/${id}/contact`, { phones: [{ label: 'home', number: '(207) 555\u0000-0114' }], bestTimes: '\u202EMornings', preferred: 'email' })
+    expect(hidden.status).toBe(400)
+    expect(hidden.body.data.fieldErrors['phones.0.number']).toContain('validation.text.unsafe')
+    expect(hidden.body.data.fieldErrors.bestTimes).toEqual(['validation.text.unsafe'])
+    const trimmed = await patient.put(`/api/patients/${id}/contact`, { phones: [{ label: 'home', number: ' (207) 555-0114 ' }], bestTimes: ' Mornings ', preferred: 'email' })
+    expect(trimmed.status).toBe(200)
+    expect(trimmed.body).toEqual({ phones: [{ label: 'home', number: '(207) 555-0114' }], bestTimes: 'Mornings', preferred: 'email' })
   })
 })
 

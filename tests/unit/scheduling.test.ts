@@ -71,7 +71,7 @@ describe('reminder lead days (clinic default 7 and 1)', () => {
 
 describe('form schemas', () => {
   const today = '2026-12-01'
-  const injection = { date: today, time: '09:40', site: 'deltoid-left', lotNumber: 'LQ2437A', lotExpiresOn: '2027-10-31', regimenId: '2' }
+  const injection = { date: today, time: '09:40', site: 'deltoid-left', lotNumber: 'LQ2437A', lotExpiresOn: '2027-10-31', regimenId: 2 }
 
   it('an injection dated in the future is refused at the date with a clear message key', () => {
     const result = recordInjectionSchema(today).safeParse({ ...injection, date: '2026-12-02' })

@@ -1,9 +1,10 @@
 import { z } from 'zod'
+import { intQuery } from '../../../../shared/schemas/text'
 import { DiaryEntry, TriageItem, User } from '../../../db/models'
 
 const querySchema = z.object({
-  page: z.coerce.number().int().min(1).max(10_000).default(1),
-  pageSize: z.coerce.number().int().min(1).max(100).default(20),
+  page: intQuery({ min: 1, max: 10_000, fallback: 1 }),
+  pageSize: intQuery({ min: 1, max: 100, fallback: 20 }),
 })
 
 /** His diary entries, newest first, a page at a time. */
