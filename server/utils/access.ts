@@ -3,7 +3,7 @@ import { createError, getRouterParam } from 'h3'
 import { Op } from 'sequelize'
 import type { User as SessionUser } from '#auth-utils'
 import type { Role } from '../../shared/types/roles'
-import { CareGrant, Patient, User } from '../db/models'
+import { CareGrant, Patient } from '../db/models'
 
 /**
  * Who may do what to which patient. Every handler that touches patient data goes through
@@ -64,17 +64,15 @@ export function can(role: Role, relation: Relation, action: PatientAction): bool
   }
 }
 
-/** The signed-in user, re-read from the database so a deactivated account stops at once. */
+/**
+ * The signed-in user, re-read from the database with his session row (one query,
+ * server/utils/sessions.ts): a deactivated account, an ended session (signed out, signed
+ * out everywhere, password changed) or an idle one stops at once with 401.
+ */
 export async function requireActiveUser(event: H3Event): Promise<SessionUser> {
   const session = await requireUserSession(event)
-  await useDb()
-  const user = await User.findByPk(session.user.id, { include: [{ model: Patient, as: 'patient' }] })
-  if (!user || !user.active) {
-    await clearUserSession(event)
-    throw createError({ statusCode: 401, message: 'errors.signedOut' })
-  }
-  const patient = (user as User & { patient?: Patient | null }).patient
-  return { id: user.id, role: user.role, name: user.name, language: user.language, patientId: patient?.id ?? null }
+  const user = await requireLiveSession(event, session)
+  return { id: user.id, role: user.role, name: user.name, language: user.language, patientId: user.patient?.id ?? null }
 }
 
 export async function requireRole(event: H3Event, roles: readonly Role[]): Promise<SessionUser> {

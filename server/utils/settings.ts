@@ -18,6 +18,11 @@ export const DEFAULT_SETTINGS = {
   clinicianAlertList: [] as string[],
   urgentResponseHours: 4,
   routineResponseWorkingDays: 3,
+  // Sign-out after this many minutes without a request (server/utils/sessions.ts). Common
+  // practice, not a rule: about an hour on a patient's own device, 15 minutes on shared
+  // clinic workstations (as health-record access policies usually ask of staff).
+  idleMinutesPatient: 60,
+  idleMinutesStaff: 15,
 }
 
 export type ClinicSettings = typeof DEFAULT_SETTINGS

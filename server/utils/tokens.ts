@@ -42,7 +42,9 @@ export async function issueToken(
 
 /**
  * Marks a token used and returns it, or null when it is unknown, spent, expired or for
- * another purpose. The conditional UPDATE makes a second use lose even in a race.
+ * another purpose. The conditional UPDATE makes a second use lose even in a race. Using
+ * one link spends every other outstanding link of the same purposes for the same user
+ * (three reset e-mails: the newest used, the two older ones then answer "used or expired").
  */
 export async function consumeToken(raw: string, purposes: TokenPurpose[], transaction: Transaction, now = new Date()) {
   const token = await OneTimeToken.findOne({ where: { tokenHash: hashToken(raw), purpose: purposes }, transaction })
@@ -51,5 +53,12 @@ export async function consumeToken(raw: string, purposes: TokenPurpose[], transa
     { usedAt: now },
     { where: { id: token.id, usedAt: null, expiresAt: { [Op.gt]: now } }, transaction },
   )
-  return changed === 1 ? token : null
+  if (changed !== 1) return null
+  if (token.userId !== null) {
+    await OneTimeToken.update(
+      { usedAt: now },
+      { where: { userId: token.userId, purpose: purposes, usedAt: null, id: { [Op.ne]: token.id } }, transaction },
+    )
+  }
+  return token
 }

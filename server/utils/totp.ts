@@ -194,11 +194,12 @@ export function sessionUserOf(user: User & { patient?: Patient | null }): Sessio
 
 /**
  * The full session, after the password and (when he needs one) the second factor. The one
- * place a signed-in session is made (sign-in.post.ts and the second-factor routes).
+ * place a signed-in session is made (sign-in.post.ts and the second-factor routes), with
+ * its row in user_sessions (server/utils/sessions.ts).
  */
 export async function completeSignIn(event: H3Event, user: User & { patient?: Patient | null }): Promise<SessionUser> {
   const sessionUser = sessionUserOf(user)
-  await replaceUserSession(event, { user: sessionUser, loggedInAt: Date.now() })
+  await startSession(event, sessionUser)
   return sessionUser
 }
 

@@ -12,6 +12,10 @@ declare module '#auth-utils' {
   interface SecureSessionData {
     /** Half signed in: the password was right, the second factor is still to come (server/utils/totp.ts). */
     secondFactor?: { userId: number, at: number }
+    /** The user_sessions row this cookie stands for (server/utils/sessions.ts). */
+    sessionId?: string
+    /** When he was last seen (ms), for the idle timeout; refreshed at most once a minute. */
+    seenAt?: number
   }
 }
 

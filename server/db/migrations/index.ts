@@ -7,6 +7,7 @@ import * as labs from './0006-labs'
 import * as safety from './0007-safety'
 import * as requestIds from './0008-request-ids'
 import * as readIndexes from './0009-read-indexes'
+import * as sessions from './0010-sessions'
 import * as throttle from './0011-throttle'
 import * as secondFactor from './0012-second-factor'
 
@@ -24,6 +25,7 @@ export const migrations = [
   { name: '0007-safety', ...safety },
   { name: '0008-request-ids', ...requestIds },
   { name: '0009-read-indexes', ...readIndexes },
+  { name: '0010-sessions', ...sessions },
   { name: '0011-throttle', ...throttle },
   { name: '0012-second-factor', ...secondFactor },
 ]

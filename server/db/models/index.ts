@@ -19,16 +19,19 @@ import { TotpRecoveryCode } from './totp-recovery-code'
 import { TriageEvent } from './triage-event'
 import { TriageItem } from './triage-item'
 import { User } from './user'
+import { UserSession } from './user-session'
 
-export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TotpRecoveryCode, TriageEvent, TriageItem, User }
+export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TotpRecoveryCode, TriageEvent, TriageItem, User, UserSession }
 
 /** Registers every model and its associations on one connection. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [User, Patient, CareGrant, AuditEvent, OutboxMessage, OneTimeToken, SignInFailure, CaughtMail, ClinicSetting, CircleInvitation, DiaryEntry, Regimen, PatientRegimen, Injection, Appointment, AppointmentChangeRequest, TriageItem, TriageEvent, TotpRecoveryCode]) {
+  for (const model of [User, Patient, CareGrant, AuditEvent, OutboxMessage, OneTimeToken, SignInFailure, CaughtMail, ClinicSetting, CircleInvitation, DiaryEntry, Regimen, PatientRegimen, Injection, Appointment, AppointmentChangeRequest, TriageItem, TriageEvent, TotpRecoveryCode, UserSession]) {
     model.initModel(sequelize)
   }
   User.hasOne(Patient, { foreignKey: { name: 'userId', field: 'user_id', allowNull: false }, as: 'patient' })
   Patient.belongsTo(User, { foreignKey: { name: 'userId', field: 'user_id', allowNull: false }, as: 'user' })
+  User.hasMany(UserSession, { foreignKey: { name: 'userId', field: 'user_id', allowNull: false }, as: 'sessions' })
+  UserSession.belongsTo(User, { foreignKey: { name: 'userId', field: 'user_id', allowNull: false }, as: 'user' })
   Patient.hasMany(CareGrant, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'grants' })
   CareGrant.belongsTo(Patient, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'patient' })
   CareGrant.belongsTo(User, { foreignKey: { name: 'caregiverUserId', field: 'caregiver_user_id', allowNull: false }, as: 'caregiver' })

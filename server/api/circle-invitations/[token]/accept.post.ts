@@ -17,7 +17,13 @@ export default defineEventHandler(async (event) => {
   const problems = invited ? await passwordProblemsFor(input.password!, { email: invited.email, name: input.name ?? invited.name }) : []
   if (problems.length) throw createError({ statusCode: 400, message: problems[0], data: { fieldErrors: { password: problems } } })
   const passwordHash = input.password === undefined ? null : await hashPassword(input.password)
-  const session = await getUserSession(event)
+  // Who is signed in, from a live session only: an ended or idle cookie is nobody here.
+  const signedInId = (await getUserSession(event)).user
+    ? await requireActiveUser(event).then(user => user.id, (error: { statusCode?: number }) => {
+      if (error?.statusCode === 401) return null
+      throw error
+    })
+    : null
 
   const sequelize = await useDb()
   const accepted = await sequelize.transaction(async (transaction) => {
@@ -25,7 +31,7 @@ export default defineEventHandler(async (event) => {
     let account = await User.findOne({ where: { email: invitation.email }, transaction })
     const kind = invitationAccountKind(account)
     if (kind === 'unavailable') throw createError({ statusCode: 409, message: 'errors.circleAccountUnavailable' })
-    if (kind === 'existing' && session.user?.id !== account!.id) {
+    if (kind === 'existing' && signedInId !== account!.id) {
       throw createError({ statusCode: 403, message: 'errors.circleSignInFirst' })
     }
     if (kind === 'new') {
@@ -54,8 +60,7 @@ export default defineEventHandler(async (event) => {
 
   if (accepted.newAccount) {
     const { account } = accepted
-    const user = { id: account.id, role: account.role, name: account.name, language: account.language, patientId: null }
-    await replaceUserSession(event, { user, loggedInAt: Date.now() })
+    await startSession(event, { id: account.id, role: account.role, name: account.name, language: account.language, patientId: null })
   }
   return { patientId: Number(accepted.patientId), newAccount: accepted.newAccount }
 })
