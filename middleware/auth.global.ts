@@ -18,7 +18,9 @@ export default defineNuxtRouteMiddleware((to) => {
     return
   }
   if (!loggedIn.value || !user.value) {
-    return navigateTo({ path: '/sign-in', query: to.fullPath !== '/' ? { next: to.fullPath } : {} })
+    // Set by plugins/session-ended.server.ts when the session ended for idleness.
+    const ended = useState<string | null>('session-ended', () => null).value === 'idle' ? { ended: 'idle' } : {}
+    return navigateTo({ path: '/sign-in', query: { ...(to.fullPath !== '/' ? { next: to.fullPath } : {}), ...ended } })
   }
   const roles = to.meta.roles
   if (roles && !roles.includes(user.value.role)) return navigateTo(HOME_BY_ROLE[user.value.role])
