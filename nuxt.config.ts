@@ -70,8 +70,8 @@ export default defineNuxtConfig({
   },
   nitro: {
     // Precompress everything in .output/public at build time (.gz and .br beside each file);
-    // Nitro then serves the one the browser accepts. Page HTML is rendered per request and
-    // goes out uncompressed.
+    // Nitro then serves the one the browser accepts. Page HTML and JSON are made per request
+    // and gzip-compressed on the way out (server/plugins/07.compression.ts).
     compressPublicAssets: { gzip: true, brotli: true },
     experimental: { tasks: true },
     scheduledTasks: {

@@ -7,8 +7,7 @@ import { startApp } from '../support/app'
 /*
  * The built server sends the precompressed copies that nitro.compressPublicAssets writes at
  * build time (file.js.br, file.js.gz beside file.js) to a browser that accepts them. Page HTML
- * is rendered per request and Nitro sends it as it is (no Content-Encoding); a reverse proxy
- * in front may compress it. Node's own http client is used here because fetch would
+ * and JSON are made per request and compressed on the way out (gzip, above 1 kB). Node's own http client is used here because fetch would
  * decompress the body and hide what went over the wire.
  */
 
@@ -93,16 +92,35 @@ describe('precompressed static assets', () => {
     expect(decoded(reply).toString('utf8')).toMatch(/@font-face/)
   })
 
-  it('serves the page HTML whole to a browser that accepts br and gzip (Nitro sends rendered pages as they are)', async () => {
+  it('sends the page HTML gzip-compressed to a browser that accepts it, and whole to one that does not', async () => {
     const page = await get('/sign-in', 'br, gzip')
     expect(page.status).toBe(200)
     expect(page.headers['content-type']).toMatch(/text\/html/)
-    // Rendered per request: no precompressed copy exists, so Nitro answers without Content-Encoding.
-    expect(page.headers['content-encoding']).toBeUndefined()
+    // Rendered per request: compressed on the way out (server/plugins/07.compression.ts), gzip.
+    expect(page.headers['content-encoding']).toBe('gzip')
+    expect(String(page.headers.vary)).toMatch(/accept-encoding/i)
     const html = decoded(page).toString('utf8')
     expect(html).toMatch(/^<!DOCTYPE html>/i)
     expect(html).toMatch(/<\/html>\s*$/)
     expect(html).toMatch(/<script type="module" src="\/_nuxt\//)
+    expect(page.body.length).toBeLessThan(html.length / 2)
+
+    const plain = await get('/sign-in')
+    expect(plain.headers['content-encoding']).toBeUndefined()
+    expect(plain.body.toString('utf8')).toMatch(/^<!DOCTYPE html>/i)
+  })
+
+  it('compresses a large JSON answer (the locale messages) and leaves a small one (the clinic) as it is', async () => {
+    const entry = (await get(await entryScript())).body.toString('utf8')
+    const hash = /\ben:"([0-9a-f]{8})",es:"[0-9a-f]{8}"/.exec(entry)?.[1]
+    const messages = await get(`/_i18n/${hash}/en/messages.json`, 'gzip')
+    expect(messages.headers['content-encoding']).toBe('gzip')
+    expect(JSON.parse(gunzipSync(messages.body).toString('utf8')).en.auth).toBeTruthy()
+
+    const clinic = await get('/api/clinic', 'gzip')
+    expect(clinic.status).toBe(200)
+    expect(clinic.headers['content-encoding']).toBeUndefined()
+    expect(JSON.parse(clinic.body.toString('utf8')).clinicName).toBeTruthy()
   })
 })
 
