@@ -44,8 +44,18 @@ export function newSessionId(): string {
   return randomBytes(24).toString('base64url')
 }
 
-/** Signs him in: a new live row, and a fresh cookie that names it. */
+/**
+ * Ends the session this browser holds, if any, before a new sign-in replaces its cookie:
+ * otherwise a copy of the old cookie would stay live until it went idle.
+ */
+export async function endCurrentSession(event: H3Event): Promise<void> {
+  const previous = (await getUserSession(event)).secure?.sessionId
+  if (previous) await endSession(previous, 'sign-out')
+}
+
+/** Signs him in: a new live row, and a fresh cookie that names it (the one it replaces ends). */
 export async function startSession(event: H3Event, user: SessionUser): Promise<void> {
+  await endCurrentSession(event)
   const id = newSessionId()
   const userAgent = (getRequestHeader(event, 'user-agent') ?? '').slice(0, 120) || null
   await UserSession.create({ id, userId: user.id, endedAt: null, endedReason: null, userAgent })

@@ -205,6 +205,7 @@ export async function completeSignIn(event: H3Event, user: User & { patient?: Pa
 
 /** The half-signed-in session: the password was right, the code is still to come. */
 export async function startSecondFactor(event: H3Event, user: User) {
+  await endCurrentSession(event)
   await replaceUserSession(event, { secure: { secondFactor: { userId: user.id, at: Date.now() } } })
 }
 

@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { RunningApp } from '../support/app'
 import { startApp } from '../support/app'
-import { Client } from '../support/client'
+import { Client, DEMO_PASSWORD } from '../support/client'
 import { linkIn, MailCatcher } from '../support/mail-catcher'
 import { sql } from '../support/sqlite'
 
@@ -91,6 +91,21 @@ describe('revocable sessions', () => {
     const copy = copyOf(patient)
     expect((await patient.delete('/api/_auth/session')).status).toBe(200)
     expect((await copy.get(schedule)).status).toBe(401)
+  })
+
+  it('signing in again in the same browser ends the session it replaces', async () => {
+    const nurse = await Client.signIn(app.url, 'clinician@demo.tidewell.test')
+    const before = copyOf(nurse)
+    expect((await before.get('/api/due-list')).status).toBe(200)
+    const again = await nurse.post('/api/auth/sign-in', { email: 'clinician@demo.tidewell.test', password: DEMO_PASSWORD })
+    expect(again.body.secondFactor).toBe('verify')
+    expect((await copyOf(before).get('/api/due-list')).status).toBe(401)
+    const patient = await Client.signIn(app.url, 'desmond@demo.tidewell.test')
+    const old = copyOf(patient)
+    const schedule = await scheduleOf(patient)
+    expect((await patient.post('/api/auth/sign-in', { email: 'desmond@demo.tidewell.test', password: DEMO_PASSWORD })).status).toBe(200)
+    expect((await patient.get(schedule)).status).toBe(200)
+    expect((await old.get(schedule)).status).toBe(401)
   })
 
   it('sign-out-everywhere ends his session on another device and leaves other people signed in', async () => {
