@@ -28,6 +28,35 @@ export async function migrate(sequelize: Sequelize) {
 
 type Connection = sqlite3.Database & { tidewellConfigured?: boolean }
 
+/*
+ * Sequelize's SQLite dialect asks `PRAGMA table_info(<table>)` before every SELECT (to know
+ * which columns hold dates and booleans), one more trip through libuv's thread pool each
+ * time; inside a write transaction every trip also waits for the event loop while the
+ * write line waits behind it. The schema does not change once the migrations have run, so
+ * each table's answer is kept from the first time (cleared when migrations run).
+ */
+const TABLE_INFO = /^PRAGMA table_info\(`?([\w]+)`?\)$/
+const tableInfo = new Map<string, unknown[]>()
+let schemaSettled = false
+
+function keepTableInfo(connection: Connection) {
+  const all = connection.all.bind(connection) as (sql: string, ...rest: unknown[]) => Connection
+  connection.all = ((sql: string, ...rest: unknown[]) => {
+    const table = schemaSettled && typeof sql === 'string' ? TABLE_INFO.exec(sql)?.[1] : undefined
+    const callback = rest.at(-1)
+    if (!table || rest.length !== 1 || typeof callback !== 'function') return all(sql, ...rest)
+    const kept = tableInfo.get(table)
+    if (kept) {
+      process.nextTick(callback as (error: null, rows: unknown[]) => void, null, kept)
+      return connection
+    }
+    return all(sql, (error: Error | null, rows: unknown[]) => {
+      if (!error && schemaSettled) tableInfo.set(table, rows)
+      ;(callback as (error: Error | null, rows: unknown[]) => void)(error, rows)
+    })
+  }) as Connection['all']
+}
+
 /**
  * Sequelize opens one SQLite connection per transaction (and closes it after), turning
  * foreign keys on for each, but has no hook for other per-connection settings on this
@@ -55,6 +84,7 @@ function configureEachConnection(sequelize: Sequelize) {
   const configured = async (connection: Connection) => {
     if (!connection.tidewellConfigured) {
       connection.configure('busyTimeout', 5000)
+      keepTableInfo(connection)
       await new Promise<void>((done, fail) => connection.run('PRAGMA synchronous = NORMAL', error => (error ? fail(error) : done())))
       connection.tidewellConfigured = true
     }
@@ -186,7 +216,10 @@ async function connect(): Promise<Sequelize> {
   queueWrites(sequelize, writeQueue)
   await sequelize.query('PRAGMA journal_mode = WAL;')
   initModels(sequelize)
+  schemaSettled = false
+  tableInfo.clear()
   await migrate(sequelize)
+  schemaSettled = true
   return sequelize
 }
 
