@@ -1,0 +1,24 @@
+/*
+ * Nitro answers useRuntimeConfig(event) with a private copy per request: it deep-copies the
+ * build's runtime config and looks up every key (about a hundred, most of them the i18n
+ * module's) in the environment again, turning each name into NUXT_SNAKE_CASE. Every
+ * internal fetch of a server render is a request of its own, and @nuxtjs/i18n,
+ * nuxt-auth-utils and the renderer each ask for it: a CPU profile of Today's server render
+ * at 10 connections put a quarter of the process's time there (issue 10).
+ *
+ * The environment is read once, at start (useRuntimeConfig() without an event is that
+ * result), and Tidewell changes no setting while it runs, so every request gets a plain
+ * copy of that instead: the same values, without a hundred environment look-ups. A copy,
+ * not the object itself: the startup one is frozen, and @nuxtjs/i18n writes into its
+ * request's copy while it sets up.
+ */
+export default defineNitroPlugin((nitroApp) => {
+  const settled = structuredClone(useRuntimeConfig())
+  const handler = nitroApp.h3App.handler
+  nitroApp.h3App.handler = (event) => {
+    const context = event.context as { nitro?: { errors: unknown[], runtimeConfig?: unknown } }
+    context.nitro ??= { errors: [] }
+    context.nitro.runtimeConfig ??= structuredClone(settled)
+    return handler(event)
+  }
+})
