@@ -8,6 +8,7 @@ export default defineNuxtConfig({
     '@nuxtjs/i18n',
     '@pinia/nuxt',
     'nuxt-auth-utils',
+    'nuxt-security',
   ],
   devtools: { enabled: false },
   experimental: {
@@ -57,6 +58,74 @@ export default defineNuxtConfig({
       name: 'tidewell-session',
       maxAge: 60 * 60 * 8,
       cookie: { sameSite: 'lax', httpOnly: true },
+    },
+  },
+  routeRules: {
+    // Health data in every API answer (JSON, the calendar file, CSV exports): no browser or
+    // proxy keeps a copy. Pages get no-store too (server/plugins/09.security-headers.ts);
+    // /_nuxt/** (a year, immutable) and /_i18n/** (a day) keep their own caching.
+    '/api/**': { headers: { 'cache-control': 'no-store' } },
+  },
+  // nuxt-security 2.5.1 (2.6 needs Node 24): headers only. Its other parts stay off because
+  // Tidewell has its own: throttling kept in the database (server/utils/throttle.ts), the
+  // request guard's Origin check and 64 kB body limit (server/middleware/01.request-guard.ts),
+  // zod validation of every input. Its CORS handler would answer any preflight with 204 and
+  // add Access-Control-Allow-Origin: * to every same-origin response; with it off no other
+  // site may read an answer (the browser's same-origin rule). HSTS, upgrade-insecure-requests
+  // and the pages' Cache-Control depend on the public URL, which is read at run time:
+  // server/plugins/09.security-headers.ts. See README "Security".
+  security: {
+    nonce: true,
+    // Assets are served from our own origin; integrity attributes guard against a changed
+    // third-party copy, which Tidewell does not load.
+    sri: false,
+    removeLoggers: false,
+    hidePoweredBy: true,
+    rateLimiter: false,
+    requestSizeLimiter: false,
+    xssValidator: false,
+    corsHandler: false,
+    csrf: false,
+    headers: {
+      contentSecurityPolicy: {
+        'default-src': ["'self'"],
+        'base-uri': ["'none'"],
+        'connect-src': ["'self'"],
+        'font-src': ["'self'"],
+        'form-action': ["'self'"],
+        'frame-ancestors': ["'none'"],
+        'frame-src': ["'none'"],
+        // data: for the second-factor QR code, an SVG made on the server (server/utils/totp.ts).
+        'img-src': ["'self'", 'data:'],
+        'manifest-src': ["'self'"],
+        'media-src': ["'self'"],
+        'object-src': ["'none'"],
+        'script-src': ["'self'", "'nonce-{{nonce}}'", "'strict-dynamic'"],
+        'script-src-attr': ["'none'"],
+        // <style> and <link> elements need the page's nonce; style attributes are allowed,
+        // because Vue renders :style bindings (the diary's progress bar) as attributes on
+        // the server. A style attribute cannot run script.
+        'style-src': ["'self'", "'nonce-{{nonce}}'"],
+        'style-src-attr': ["'unsafe-inline'"],
+        'worker-src': ["'self'"],
+        // Only when the public URL is https (server/plugins/09.security-headers.ts).
+        'upgrade-insecure-requests': false,
+      },
+      // Static config in the module; sent at run time when the public URL is https instead.
+      strictTransportSecurity: false,
+      xFrameOptions: 'DENY',
+      xContentTypeOptions: 'nosniff',
+      referrerPolicy: 'no-referrer',
+      crossOriginOpenerPolicy: 'same-origin',
+      // Issue 13 (photos) will want camera=(self).
+      permissionsPolicy: {
+        'camera': [],
+        'microphone': [],
+        'geolocation': [],
+        'display-capture': [],
+        'payment': [],
+        'usb': [],
+      },
     },
   },
   hooks: {
