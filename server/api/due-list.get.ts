@@ -51,6 +51,7 @@ export default defineEventHandler(async (event) => {
       nextAppointment: next ? { id: next.id, startsAt: next.startsAt.toISOString(), status: next.status } : null,
     })
   }
-  await recordAudit(event, { actor, patientId: null, action: 'due-list.read', resource: event.path })
+  // One line per patient on the list (not those counted as later): audit.ts recordListAudit.
+  await recordListAudit(event, { actor, action: 'due-list.read', resource: `${event.method} ${event.path}` }, rows.map(r => r.patientId))
   return { today: clock.today, timeZone: tz, rows, later }
 })

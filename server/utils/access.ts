@@ -101,7 +101,8 @@ export interface PatientAccess {
 /**
  * Authenticate, then authorise one action on one patient. A record the user may not see
  * answers 404 (it might as well not exist); one he may see but not change answers 403.
- * Every access by anyone but the patient himself, allowed or not, goes to the audit trail.
+ * Every access by anyone but the patient himself goes to the audit trail: a refusal at once,
+ * a granted access when the request has finished, with its outcome (audit.ts).
  */
 export async function authorizePatient(event: H3Event, patientId: number, action: PatientAction, signedIn?: SessionUser): Promise<PatientAccess> {
   // A handler that already checked the role passes the user it got, so he is read once.
@@ -110,19 +111,19 @@ export async function authorizePatient(event: H3Event, patientId: number, action
   const patient = id ? await Patient.findByPk(id) : null
   const { relation, grant } = patient ? await relationTo(user, id) : { relation: { kind: 'none' } as Relation, grant: null }
   const audited = relation.kind !== 'self'
-  const audit = (outcome: 'allowed' | 'denied') => audited
-    ? recordAudit(event, { actor: user, patientId: patient?.id ?? null, action, resource: `${event.method} ${event.path}`, outcome })
-    : Promise.resolve()
+  const line = { actor: user, patientId: patient?.id ?? null, action, resource: `${event.method} ${event.path}` }
 
   if (!patient || !can(user.role, relation, 'patient.read')) {
-    await audit('denied')
+    if (audited) await recordAudit(event, { ...line, outcome: 'refused-policy' })
     throw createError({ statusCode: 404, message: 'errors.notFound' })
   }
   if (!can(user.role, relation, action)) {
-    await audit('denied')
+    if (audited) await recordAudit(event, { ...line, outcome: 'refused-policy' })
     throw createError({ statusCode: 403, message: 'errors.forbidden' })
   }
-  await audit('allowed')
+  // Granted: the line is written when the request ends, with what happened (done, refused
+  // as invalid, ...): server/plugins/00.audit-outcome.ts.
+  if (audited) deferAudit(event, line)
   return { user, patient, grant, relation: relation.kind }
 }
 

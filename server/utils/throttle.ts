@@ -37,10 +37,18 @@ export const LIMITS = {
  * reverse proxies in front of Tidewell, each adding one entry to X-Forwarded-For), the
  * entry n places from the right of X-Forwarded-For: the address the outermost trusted
  * proxy saw. Entries further left are written by the client and never trusted. With the
- * setting off, X-Forwarded-For is ignored.
+ * setting off, X-Forwarded-For is ignored. The audit trail records the same address
+ * (audit.ts); a server render's internal API calls get the browser request's.
  */
 export function clientIp(event: H3Event): string {
-  const socket = event.node.req.socket?.remoteAddress ?? 'unknown'
+  const own = event.node.req.socket?.remoteAddress
+  // An internal call of a server render has no socket: the address is the page request's
+  // (request-scope.ts). Its headers were copied from the browser and are not read.
+  if (!own) {
+    const outer = outerRequest()
+    if (outer && outer !== event && outer.node.req.socket?.remoteAddress) return clientIp(outer)
+  }
+  const socket = own || 'unknown'
   const hops = trustedProxyHops()
   if (!hops) return socket
   const forwarded = (getRequestHeader(event, 'x-forwarded-for') ?? '').split(',').map(part => part.trim()).filter(Boolean)

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { STORED_AUDIT_OUTCOMES } from '../types/audit'
 import { LANGUAGES } from '../types/roles'
 import { emailSchema, isoDateSchema, newPasswordSchema } from './auth'
 import { requestIdSchema } from './request-id'
@@ -45,7 +46,7 @@ export const auditQuerySchema = z.object({
   actor: idString({ optional: true }),
   patient: idString({ optional: true }),
   action: z.preprocess(emptyAsUndefined, safeText().trim().max(64).regex(/^[a-z0-9.-]+$/, 'validation.generic.invalid').optional()),
-  outcome: z.preprocess(emptyAsUndefined, z.enum(['allowed', 'denied']).optional()),
+  outcome: z.preprocess(emptyAsUndefined, z.enum(STORED_AUDIT_OUTCOMES).optional()),
   from: z.preprocess(emptyAsUndefined, isoDateSchema.optional()),
   to: z.preprocess(emptyAsUndefined, isoDateSchema.optional()),
   page: idString({ fallback: 1, max: 10_000 }),

@@ -34,7 +34,7 @@ describe('the local mail catcher', () => {
     expect((await admin.get('/api/admin/mail')).body.enabled).toBe(true)
     await admin.get('/api/admin/mail')
     const rows = await sql<{ actor_role: string, outcome: string }>(app.dbPath, `SELECT actor_role, outcome FROM audit_events WHERE action = 'mail-catcher.read'`)
-    expect(rows).toEqual([{ actor_role: 'admin', outcome: 'allowed' }, { actor_role: 'admin', outcome: 'allowed' }])
+    expect(rows).toEqual([{ actor_role: 'admin', outcome: 'done' }, { actor_role: 'admin', outcome: 'done' }])
   })
 
   it('account-list reads are in the audit trail', async () => {

@@ -21,7 +21,8 @@ beforeAll(async () => {
   const users = (await admin.get('/api/users')).body as { id: number, email: string }[]
   userIds = Object.fromEntries(users.map(u => [u.email.split('@')[0], u.id]))
 
-  // Known events on Howard's record: two reads by the clinician, one by a nurse, one refused caregiver.
+  // Known events on Howard's record: the roster read of patientIds() (nurse2, one line per
+  // patient listed), two reads by the clinician, one by a nurse, one refused caregiver.
   const clinician = await Client.signIn(app.url, 'clinician@demo.tidewell.test')
   await clinician.get(`/api/patients/${howard}`)
   await clinician.get(`/api/patients/${howard}/schedule`)
@@ -46,18 +47,19 @@ describe('GET /api/audit', () => {
 
   it('filters by patient, person, action and outcome', async () => {
     const byPatient = (await admin.get(`/api/audit?${query({ patient: howard })}`)).body
-    expect(byPatient.total).toBe(4)
+    expect(byPatient.total).toBe(5)
     expect(byPatient.events.map((e: { actor: { name: string }, action: string, outcome: string, resource: string }) => [e.actor.name, e.action, e.outcome, e.resource])).toEqual([
-      ['Dana Achterberg', 'patient.read', 'denied', `GET /api/patients/${howard}`],
-      ['Nora Lindqvist', 'patient.read', 'allowed', `GET /api/patients/${howard}`],
-      ['Ines Varga', 'patient.read', 'allowed', `GET /api/patients/${howard}/schedule`],
-      ['Ines Varga', 'patient.read', 'allowed', `GET /api/patients/${howard}`],
+      ['Dana Achterberg', 'patient.read', 'refused-policy', `GET /api/patients/${howard}`],
+      ['Nora Lindqvist', 'patient.read', 'done', `GET /api/patients/${howard}`],
+      ['Ines Varga', 'patient.read', 'done', `GET /api/patients/${howard}/schedule`],
+      ['Ines Varga', 'patient.read', 'done', `GET /api/patients/${howard}`],
+      ['Tobias Mwangi', 'roster.read', 'done', 'GET /api/patients'],
     ])
     expect(byPatient.events[0]).toMatchObject({ actorRole: 'caregiver', patient: { id: howard, name: 'Howard Tillinghast', clinicNumber: 'LPU-1011' } })
     expect(byPatient.actions).toEqual(expect.arrayContaining(['patient.read', 'roster.read']))
 
     expect((await admin.get(`/api/audit?${query({ patient: howard, actor: userIds.clinician! })}`)).body.total).toBe(2)
-    expect((await admin.get(`/api/audit?${query({ patient: howard, outcome: 'denied' })}`)).body.total).toBe(1)
+    expect((await admin.get(`/api/audit?${query({ patient: howard, outcome: 'refused-policy' })}`)).body.total).toBe(1)
     expect((await admin.get(`/api/audit?${query({ patient: howard, action: 'circle.read' })}`)).body.total).toBe(0)
     const reads = (await admin.get(`/api/audit?${query({ actor: userIds.admin!, action: 'audit.read' })}`)).body
     expect(reads.total).toBeGreaterThanOrEqual(4)
@@ -67,10 +69,10 @@ describe('GET /api/audit', () => {
   it('filters by a date range counted in whole days of the clinic\'s time zone (America/Chicago)', async () => {
     const today = DateTime.now().setZone('America/Chicago').toISODate()!
     const yesterday = DateTime.now().setZone('America/Chicago').minus({ days: 1 }).toISODate()!
-    expect((await admin.get(`/api/audit?${query({ patient: howard, from: today, to: today })}`)).body.total).toBe(4)
+    expect((await admin.get(`/api/audit?${query({ patient: howard, from: today, to: today })}`)).body.total).toBe(5)
     expect((await admin.get(`/api/audit?${query({ patient: howard, from: yesterday, to: yesterday })}`)).body.total).toBe(0)
     expect((await admin.get(`/api/audit?${query({ patient: howard, to: yesterday })}`)).body.total).toBe(0)
-    expect((await admin.get(`/api/audit?${query({ patient: howard, from: yesterday })}`)).body.total).toBe(4)
+    expect((await admin.get(`/api/audit?${query({ patient: howard, from: yesterday })}`)).body.total).toBe(5)
     const backwards = await admin.get(`/api/audit?${query({ from: today, to: yesterday })}`)
     expect(backwards.status).toBe(400)
     expect(backwards.body.data.fieldErrors.to).toEqual(['validation.audit.toBeforeFrom'])
@@ -82,8 +84,8 @@ describe('GET /api/audit', () => {
     const bernard = (await patientIds(app.url))['LPU-1002']!
     const nurse = await Client.signIn(app.url, 'nurse2@demo.tidewell.test')
     for (let i = 0; i < 55; i++) await nurse.get(`/api/patients/${bernard}`)
-    const first = (await admin.get(`/api/audit?${query({ patient: bernard })}`)).body
-    const second = (await admin.get(`/api/audit?${query({ patient: bernard, page: 2 })}`)).body
+    const first = (await admin.get(`/api/audit?${query({ patient: bernard, action: 'patient.read' })}`)).body
+    const second = (await admin.get(`/api/audit?${query({ patient: bernard, action: 'patient.read', page: 2 })}`)).body
     expect([first.total, first.pageSize, first.events.length, second.events.length]).toEqual([55, 50, 50, 5])
     const ids = [...first.events, ...second.events].map((e: { id: number }) => e.id)
     expect(ids).toEqual([...ids].sort((a, b) => b - a))
@@ -92,7 +94,7 @@ describe('GET /api/audit', () => {
 
 describe('GET /api/audit/export', () => {
   it('opens with a general-purpose CSV parser (csv-parse) and has one row per event', async () => {
-    const reply = await admin.get(`/api/audit/export?${query({ patient: howard })}`)
+    const reply = await admin.get(`/api/audit/export?${query({ patient: howard, action: 'patient.read' })}`)
     expect(reply.status).toBe(200)
     expect(reply.headers.get('content-type')).toMatch(/^text\/csv/)
     expect(reply.headers.get('content-disposition')).toMatch(/^attachment; filename="tidewell-audit-trail-\d{4}-\d{2}-\d{2}\.csv"$/)
@@ -100,10 +102,10 @@ describe('GET /api/audit/export', () => {
     expect(rows).toHaveLength(4)
     expect(Object.keys(rows[0]!)).toEqual(['id', 'at', 'actor_user_id', 'actor_name', 'actor_email', 'actor_role', 'patient_id', 'patient_clinic_number', 'patient_name', 'action', 'resource', 'outcome', 'ip'])
     expect(rows.map(r => [r.actor_name, r.actor_role, r.patient_clinic_number, r.action, r.outcome])).toEqual([
-      ['Dana Achterberg', 'caregiver', 'LPU-1011', 'patient.read', 'denied'],
-      ['Nora Lindqvist', 'nurse', 'LPU-1011', 'patient.read', 'allowed'],
-      ['Ines Varga', 'clinician', 'LPU-1011', 'patient.read', 'allowed'],
-      ['Ines Varga', 'clinician', 'LPU-1011', 'patient.read', 'allowed'],
+      ['Dana Achterberg', 'caregiver', 'LPU-1011', 'patient.read', 'refused-policy'],
+      ['Nora Lindqvist', 'nurse', 'LPU-1011', 'patient.read', 'done'],
+      ['Ines Varga', 'clinician', 'LPU-1011', 'patient.read', 'done'],
+      ['Ines Varga', 'clinician', 'LPU-1011', 'patient.read', 'done'],
     ])
     expect(rows.every(r => !Number.isNaN(Date.parse(r.at!)) && r.ip!.includes('127.0.0.1'))).toBe(true)
   })

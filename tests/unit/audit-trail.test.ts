@@ -5,9 +5,9 @@ import { auditQuerySchema } from '../../shared/schemas/circle'
 
 describe('audit filters', () => {
   it('turns a date range into whole days in the clinic\'s time zone, end day included', () => {
-    const query = auditQuerySchema.parse({ from: '2026-03-07', to: '2026-03-08', actor: '4', patient: '', action: 'patient.read', outcome: 'denied' })
+    const query = auditQuerySchema.parse({ from: '2026-03-07', to: '2026-03-08', actor: '4', patient: '', action: 'patient.read', outcome: 'refused-policy' })
     const where = auditWhere(query, 'America/Chicago') as Record<string | symbol, unknown>
-    expect(where).toMatchObject({ actorUserId: 4, action: 'patient.read', outcome: 'denied' })
+    expect(where).toMatchObject({ actorUserId: 4, action: 'patient.read', outcome: 'refused-policy' })
     expect(where).not.toHaveProperty('patientId')
     const at = where.at as Record<symbol, Date>
     // Chicago is UTC-6 until daylight saving starts at 02:00 on 8 March 2026, then UTC-5.

@@ -41,7 +41,8 @@ export default defineEventHandler(async (event) => {
     TriageItem.count({ where: { ...where, ...(query.level ? { level: query.level } : {}) }, include: countInclude }),
     TriageItem.count({ where, include: countInclude, group: ['level'] }) as unknown as Promise<{ level: string, count: number }[]>,
   ])
-  await recordAudit(event, { actor: user, patientId: null, action: 'triage-queue.read', resource: event.path })
+  // One line per patient on the page shown (audit.ts recordListAudit).
+  await recordListAudit(event, { actor: user, action: 'triage-queue.read', resource: `${event.method} ${event.path}` }, items.map(item => item.patientId))
   const countByLevel = Object.fromEntries(LEVELS.filter(l => l !== 'none').map(l => [l, counts.find(c => c.level === l)?.count ?? 0]))
   return { page: query.page, pageSize: query.pageSize, total, counts: countByLevel, items: items.map(item => triageRow(item, now)) }
 })

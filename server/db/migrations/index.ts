@@ -10,6 +10,7 @@ import * as readIndexes from './0009-read-indexes'
 import * as sessions from './0010-sessions'
 import * as throttle from './0011-throttle'
 import * as secondFactor from './0012-second-factor'
+import * as auditOutcomes from './0013-audit-outcomes'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -28,4 +29,5 @@ export const migrations = [
   { name: '0010-sessions', ...sessions },
   { name: '0011-throttle', ...throttle },
   { name: '0012-second-factor', ...secondFactor },
+  { name: '0013-audit-outcomes', ...auditOutcomes },
 ]

@@ -21,7 +21,7 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
       patientId: { type: DataTypes.INTEGER, allowNull: true, field: 'patient_id' },
       action: { type: DataTypes.STRING, allowNull: false },
       resource: { type: DataTypes.STRING, allowNull: false },
-      outcome: { type: DataTypes.STRING, allowNull: false, defaultValue: 'allowed' },
+      outcome: { type: DataTypes.STRING, allowNull: false, defaultValue: 'done' },
       ip: { type: DataTypes.STRING, allowNull: true },
       at: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
     }, { sequelize, tableName: 'audit_events', timestamps: false })
