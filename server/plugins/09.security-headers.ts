@@ -25,7 +25,8 @@ export default defineNitroPlugin((nitroApp) => {
   if (https) {
     // Called once at start-up by nuxt-security with its rules per route; its plugins run after ours.
     nitroApp.hooks.hook('nuxt-security:routeRules', (rules) => {
-      const csp = rules['/**']?.headers?.contentSecurityPolicy
+      const headers = rules['/**']?.headers
+      const csp = headers ? headers.contentSecurityPolicy : undefined
       if (csp && typeof csp === 'object') csp['upgrade-insecure-requests'] = true
     })
     // First thing on every request, like a route rule's headers: error answers get it too.
