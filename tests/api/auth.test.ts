@@ -26,14 +26,15 @@ describe('sign-in', () => {
     expect(session.body.user.patientId).toBeGreaterThan(0)
   })
 
-  it('seals the session in an HttpOnly, SameSite=Lax, Secure cookie', async () => {
+  // Secure only when the public URL is https (this server's is http): tests/api/accounts.test.ts.
+  it('seals the session in an HttpOnly, SameSite=Lax cookie', async () => {
     const client = new Client(app.url)
     const reply = await client.post('/api/auth/sign-in', { email: 'nurse@demo.tidewell.test', password: DEMO_PASSWORD })
     const cookie = reply.headers.getSetCookie().join('\n')
     expect(cookie).toMatch(/tidewell-session=/)
     expect(cookie).toMatch(/HttpOnly/i)
     expect(cookie).toMatch(/SameSite=Lax/i)
-    expect(cookie).toMatch(/Secure/i)
+    expect(cookie).not.toMatch(/Secure/i)
     expect(reply.body.user.patientId).toBeNull()
   })
 

@@ -2,9 +2,12 @@ import { Op } from 'sequelize'
 import { circlePermissionsSchema } from '../../../../../shared/schemas/circle'
 import { CareGrant } from '../../../../db/models'
 
-/** Changes what a caregiver may do; he has the new permissions on his next request. */
+/**
+ * Changes what a caregiver may do; he has the new permissions on his next request. When staff
+ * make the change, the patient is e-mailed to review his circle.
+ */
 export default defineEventHandler(async (event) => {
-  const { patient, user } = await authorizePatient(event, idParam(event), 'circle.manage')
+  const { patient, user, relation } = await authorizePatient(event, idParam(event), 'circle.manage')
   const input = await readValidatedBody(event, parseWith(circlePermissionsSchema))
   const grantId = idParam(event, 'grantId')
 
@@ -13,6 +16,7 @@ export default defineEventHandler(async (event) => {
     const grant = await CareGrant.findOne({ where: { id: grantId, patientId: patient.id, revokedAt: { [Op.is]: null } }, transaction })
     if (!grant) throw createError({ statusCode: 404, message: 'errors.notFound' })
     await grant.update({ ...input, updatedByUserId: user.id }, { transaction })
+    await noticeCircleChangedByStaff(relation, patient, transaction)
     await recordAudit(event, { actor: user, patientId: patient.id, action: 'circle.update', resource: `care-grant:${grant.id}` }, transaction)
   })
   const grant = await CareGrant.findByPk(grantId, { include: GRANT_PEOPLE })

@@ -6,10 +6,11 @@ import { CareGrant, CircleInvitation, User } from '../../../../db/models'
  * Invites a caregiver by e-mail with the permissions the patient chose; staff may do it on
  * his behalf (the invitation, and later the grant, name who sent it). Sending again to the
  * same address replaces the earlier invitation. The same requestId again (a retry, a double
- * click) returns the invitation the first try stored, 200, with no second e-mail.
+ * click) returns the invitation the first try stored, 200, with no second e-mail. When staff
+ * send it, the patient is e-mailed to review his circle.
  */
 export default defineEventHandler(async (event) => {
-  const { patient, user } = await authorizePatient(event, idParam(event), 'circle.manage')
+  const { patient, user, relation } = await authorizePatient(event, idParam(event), 'circle.manage')
   const input = await readValidatedBody(event, parseWith(circleInviteSchema))
 
   const { invitation, created: isNew } = await inDraftTransaction(async (transaction) => {
@@ -54,6 +55,7 @@ export default defineEventHandler(async (event) => {
       params: { name: account?.name ?? created.name },
       linkPath: `/circle/accept?token=${token}`,
     }, transaction)
+    await noticeCircleChangedByStaff(relation, patient, transaction)
     await recordAudit(event, { actor: user, patientId: patient.id, action: 'circle.invite', resource: `circle-invitation:${created.id}` }, transaction)
     return { invitation: created, created: true }
   })
