@@ -38,8 +38,15 @@ describe('testosterone escape (Oefelein 2000; EAU, from memory): at or above 50 
   })
 
   it('in nmol/L (ng/dL = nmol/L / 0.03467): 1.74 nmol/L = 50.2 ng/dL fires; 1.73 nmol/L = 49.9 ng/dL misses', () => {
-    expect(1.74 / 0.03467).toBeGreaterThan(50)
-    expect(1.73 / 0.03467).toBeLessThan(50)
+    // Worked by hand (REFERENCES.md, molar mass 288.42 g/mol): 1.74 / 0.03467 = 50.187 ng/dL,
+    // at or above 50; 1.73 / 0.03467 = 49.899 ng/dL, below it.
+    const above = interpretLab(reading('testosterone', 1.74, '2025-06-02', { unit: 'nmol/L' }), onTherapy)
+    const below = interpretLab(reading('testosterone', 1.73, '2025-06-02', { unit: 'nmol/L' }), onTherapy)
+    expect(above).toMatchObject({ kind: 'testosterone', castrate: false })
+    expect(below).toMatchObject({ kind: 'testosterone', castrate: true })
+    if (above.kind !== 'testosterone' || below.kind !== 'testosterone') throw new Error('kind')
+    expect(above.ngPerDl).toBeCloseTo(50.187, 2)
+    expect(below.ngPerDl).toBeCloseTo(49.899, 2)
     expect(triage(reading('testosterone', 1.74, '2025-06-02', { unit: 'nmol/L' })).level).toBe('urgent')
     expect(triage(reading('testosterone', 1.73, '2025-06-02', { unit: 'nmol/L' })).level).toBe('none')
   })
@@ -53,7 +60,8 @@ describe('testosterone escape (Oefelein 2000; EAU, from memory): at or above 50 
   it('shows both units and both levels: 15 ng/dL is castrate and below the stricter 20 ng/dL', () => {
     const result = interpretLab(reading('testosterone', 15), onTherapy)
     expect(result).toMatchObject({ kind: 'testosterone', castrate: true, belowStrictLevel: true, onTherapy: true })
-    if (result.kind === 'testosterone') expect(result.nmolPerL).toBeCloseTo(15 * 0.03467, 6)
+    // 15 ng/dL x 0.03467 = 0.52005 nmol/L.
+    if (result.kind === 'testosterone') expect(result.nmolPerL).toBeCloseTo(0.52005, 5)
   })
 })
 
@@ -71,11 +79,13 @@ describe('QTc (CTCAE v5.0; grade from Fridericia QT / cbrt(60 / HR))', () => {
   })
 
   it('Fridericia drives the grade: QT 440 ms at 90 bpm is 440 / cbrt(0.667) = 504 ms (Bazett 539 ms) -> urgent', () => {
-    const rr = 60 / 90
+    // Worked by hand: RR = 60 / 90 = 0.6667 s; cbrt(0.6667) = 0.87358, 440 / 0.87358 = 503.67 ms
+    // (Fridericia 1920); sqrt(0.6667) = 0.81650, 440 / 0.81650 = 538.89 ms (Bazett 1920).
     const result = interpretLab(reading('qtc', 440, '2025-06-02', { heartRate: 90 }), onTherapy)
     expect(result).toMatchObject({ kind: 'qtc', grade: 3, highRisk: true })
     if (result.kind !== 'qtc') throw new Error('kind')
-    expect(result.fridericia).toBeCloseTo(440 / Math.cbrt(rr), 6)
+    expect(result.fridericia).toBeCloseTo(503.67, 1)
+    expect(result.bazett).toBeCloseTo(538.89, 1)
     expect(Math.round(result.fridericia)).toBe(504)
     expect(Math.round(result.bazett)).toBe(539)
   })
@@ -100,11 +110,14 @@ describe('HbA1c (ADA Standards of Care 2025: 6.5 % or more is the diabetes range
   })
 
   it('6.8 %: eAG 28.7 x 6.8 - 46.7 = 148 mg/dL (8.2 mmol/L), IFCC 10.93 x 6.8 - 23.5 = 51 mmol/mol', () => {
+    // Worked by hand: ADAG (Nathan 2008) 28.7 x 6.8 = 195.16, - 46.7 = 148.46 mg/dL;
+    // 1.5944 x 6.8 = 10.84192, - 2.5944 = 8.24752 mmol/L (from memory);
+    // IFCC (Hoelzel 2004) 10.93 x 6.8 = 74.324, - 23.5 = 50.824 mmol/mol.
     const result = interpretLab(reading('hba1c', 6.8), onTherapy)
     if (result.kind !== 'hba1c') throw new Error('kind')
-    expect(Math.round(result.eagMgDl)).toBe(148)
-    expect(result.eagMmolL).toBeCloseTo(1.5944 * 6.8 - 2.5944, 6)
-    expect(Math.round(result.ifccMmolPerMol)).toBe(51)
+    expect(result.eagMgDl).toBeCloseTo(148.46, 2)
+    expect(result.eagMmolL).toBeCloseTo(8.2475, 3)
+    expect(result.ifccMmolPerMol).toBeCloseTo(50.824, 3)
     expect(result.category).toBe('diabetes')
   })
 })
@@ -120,8 +133,17 @@ describe('PSA doubling time under 3 months (Pound 1999 log-linear; threshold com
   const lastOf = (values: LabReading[]) => triage(values[3]!, { ...onTherapy, history: values.slice(0, 3) })
 
   it('doubling every 91 days (2.99 months) fires; every 92 days (3.02 months) just misses', () => {
-    expect(91 / (365.25 / 12)).toBeLessThan(3)
-    expect(92 / (365.25 / 12)).toBeGreaterThan(3)
+    // Worked by hand (Pound 1999): 1, 2, 4 ng/mL at equal steps of d days lie on a line of
+    // ln PSA with slope ln 2 / d, so the doubling time is ln 2 / slope = d days;
+    // in months of 365.25 / 12 = 30.4375 days: 91 / 30.4375 = 2.9897, 92 / 30.4375 = 3.0226.
+    const doublingOf = (values: LabReading[]) => interpretLab(values[3]!, { ...onTherapy, history: values })
+    expect(doublingOf(series(91))).toMatchObject({ kind: 'psa', valuesUsed: 3, doubling: { status: 'rising' } })
+    const fast = doublingOf(series(91))
+    const slow = doublingOf(series(92))
+    if (fast.kind !== 'psa' || fast.doubling.status !== 'rising' || slow.kind !== 'psa' || slow.doubling.status !== 'rising') throw new Error('not rising')
+    expect(fast.doubling.days).toBeCloseTo(91, 6)
+    expect(fast.doubling.months).toBeCloseTo(2.9897, 4)
+    expect(slow.doubling.months).toBeCloseTo(3.0226, 4)
     const fired = lastOf(series(91))
     expect(fired.level).toBe('routine')
     expect(rulesOf(fired)).toEqual(['psa-fast-doubling'])
