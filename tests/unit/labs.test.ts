@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest'
 import {
-  DAYS_PER_MONTH,
   GLUCOSE_MG_DL_PER_MMOL_L,
   TESTOSTERONE_NMOL_L_PER_NG_DL,
   a1cCategory,
@@ -25,14 +24,17 @@ const round = (value: number, places = 0) => Math.round(value * 10 ** places) / 
 
 describe('testosterone (Oefelein MG et al., Urology 2000; EAU guidelines, wording from memory)', () => {
   it('converts with molar mass 288.42 g/mol: 1 ng/dL = 10 / 288.42 nmol/L', () => {
-    expect(TESTOSTERONE_NMOL_L_PER_NG_DL).toBeCloseTo(10 / 288.42, 5)
+    // 1 ng/dL = 10 ng/L; 10 / 288.42 = 0.034672 nmol/L (REFERENCES.md rounds it to 0.03467).
+    expect(TESTOSTERONE_NMOL_L_PER_NG_DL).toBeCloseTo(0.034672, 5)
   })
 
   it('50 ng/dL -> 1.73 nmol/L; 20 -> 0.69; 1.7 nmol/L -> 49.0 ng/dL', () => {
     expect(round(testosteroneNgDlToNmolL(50), 2)).toBe(1.73)
     expect(round(testosteroneNgDlToNmolL(20), 2)).toBe(0.69)
     expect(round(testosteroneNmolLToNgDl(1.7), 1)).toBe(49.0)
-    expect(testosteroneNmolLToNgDl(testosteroneNgDlToNmolL(37))).toBeCloseTo(37, 10)
+    // 37 ng/dL x 0.03467 = 1.28279 nmol/L, and 1.28279 / 0.03467 = 37.0 ng/dL.
+    expect(testosteroneNgDlToNmolL(37)).toBeCloseTo(1.28279, 5)
+    expect(testosteroneNmolLToNgDl(1.28279)).toBeCloseTo(37, 5)
   })
 
   it('is castrate below 50 ng/dL and below the stricter level under 20 ng/dL', () => {
@@ -45,7 +47,8 @@ describe('testosterone (Oefelein MG et al., Urology 2000; EAU guidelines, wordin
   it('takes nmol/L too: 1.7 nmol/L (about 49 ng/dL) is castrate, 0.7 (about 20.2) is not below 20', () => {
     const status = castrateStatus(1.7, 'nmol/L')
     expect(status.castrate).toBe(true)
-    expect(status.ngPerDl).toBeCloseTo(1.7 / 0.03467, 6)
+    // 1.7 / 0.03467 = 49.034 ng/dL; 0.7 / 0.03467 = 20.190 (not below 20); 0.69 / 0.03467 = 19.902.
+    expect(status.ngPerDl).toBeCloseTo(49.034, 3)
     expect(castrateStatus(0.7, 'nmol/L').belowStrictLevel).toBe(false)
     expect(castrateStatus(0.69, 'nmol/L').belowStrictLevel).toBe(true)
   })
@@ -58,26 +61,26 @@ describe('testosterone (Oefelein MG et al., Urology 2000; EAU guidelines, wordin
 describe('PSA doubling time (Pound CR et al., JAMA 1999 log-linear; Arlen PM et al., J Urol 2008, 3 values from memory)', () => {
   it('(0 mo 2.0, 3 mo 4.0, 6 mo 8.0) doubles every 3.00 months', () => {
     const result = psaDoublingTime([{ time: 0, psa: 2 }, { time: 3, psa: 4 }, { time: 6, psa: 8 }])
-    // ln PSA rises by ln 2 every 3 months: slope ln2/3, doubling time ln2 / slope = 3.
+    // ln PSA rises by ln 2 every 3 months: slope 0.693147 / 3 = 0.231049 per month,
+    // doubling time ln 2 / slope = 3.
     expect(result.status).toBe('rising')
     if (result.status !== 'rising') return
-    expect(result.slope).toBeCloseTo(Math.LN2 / 3, 12)
+    expect(result.slope).toBeCloseTo(0.231049, 6)
     expect(round(result.doublingTime, 2)).toBe(3)
   })
 
   it('(day 0 1.0, 90 1.5, 180 2.1, 270 3.2) doubles in about 163 days', () => {
     const points = [{ time: 0, psa: 1.0 }, { time: 90, psa: 1.5 }, { time: 180, psa: 2.1 }, { time: 270, psa: 3.2 }]
-    // Least squares by hand: slope = sum((t - mean t)(ln p - mean ln p)) / sum((t - mean t)^2).
-    const meanT = (0 + 90 + 180 + 270) / 4
-    const logs = points.map(p => Math.log(p.psa))
-    const meanLog = logs.reduce((a, b) => a + b) / 4
-    const slope = points.reduce((s, p, i) => s + (p.time - meanT) * ((logs[i] ?? 0) - meanLog), 0)
-      / points.reduce((s, p) => s + (p.time - meanT) ** 2, 0)
+    // Least squares worked by hand (Pound 1999): slope = sum((t - mean t)(ln p - mean ln p)) / sum((t - mean t)^2).
+    // mean t = 135; t - mean t = -135, -45, 45, 135; sum of squares = 2 x (18225 + 2025) = 40500.
+    // ln p = 0, 0.405465, 0.741937, 1.163151; mean ln p = 0.577638.
+    // sum of products = -135 x -0.577638 - 45 x -0.172173 + 45 x 0.164299 + 135 x 0.585513 = 172.167.
+    // slope = 172.167 / 40500 = 0.0042510 per day; doubling time = 0.693147 / 0.0042510 = 163.05 days.
     const result = psaDoublingTime(points)
     expect(result.status).toBe('rising')
     if (result.status !== 'rising') return
-    expect(result.doublingTime).toBeCloseTo(Math.LN2 / slope, 9)
-    expect(Math.round(result.doublingTime)).toBe(163)
+    expect(result.slope).toBeCloseTo(0.0042510, 6)
+    expect(result.doublingTime).toBeCloseTo(163.05, 1)
   })
 
   it('is "not rising", never a number, when PSA is flat or falling', () => {
@@ -106,8 +109,9 @@ describe('PSA doubling time (Pound CR et al., JAMA 1999 log-linear; Arlen PM et 
     ])
     expect(result).toMatchObject({ status: 'rising', valuesUsed: 3 })
     if (result.status !== 'rising') return
+    // 90 days in months of 365.25 / 12 = 30.4375 days: 90 / 30.4375 = 2.9569.
     expect(result.days).toBeCloseTo(90, 9)
-    expect(result.months).toBeCloseTo(90 / DAYS_PER_MONTH, 9)
+    expect(result.months).toBeCloseTo(2.9569, 4)
     expect(psaDoublingTimeFromResults([])).toEqual({ status: 'too-few-values', valuesUsed: 0 })
   })
 
@@ -147,13 +151,15 @@ describe('PSA doubling time on therapy from the nadir (Scher HI et al., PCWG3, J
     // The whole series falls overall (a fit over all seven has a negative slope)...
     const all = psaDoublingTime(results.map(r => ({ time: Date.parse(r.date) / 86_400_000, psa: r.psa })))
     expect(all.status).toBe('not-rising')
-    // ...but since the nadir of 0.5 it nearly doubles every two months.
+    // ...but since the nadir of 0.5 it nearly doubles every two months. Worked by hand over
+    // 0.9, 1.6, 2.9 at days 0, 61, 122 (2024-09-01, 11-01, 2025-01-01): with three equally
+    // spaced times the least-squares slope is (ln 2.9 - ln 0.9) / 122 = (1.064711 + 0.105361)
+    // / 122 = 0.0095907 per day; doubling time 0.693147 / 0.0095907 = 72.27 days.
     const since = psaDoublingTimeFromResults(results)
     expect(since.status).toBe('rising')
     if (since.status === 'rising') {
       expect(since.valuesUsed).toBe(3)
-      expect(since.days).toBeGreaterThan(60)
-      expect(since.days).toBeLessThan(80)
+      expect(since.days).toBeCloseTo(72.27, 1)
     }
   })
 
@@ -195,22 +201,24 @@ describe('PSA doubling time on therapy from the nadir (Scher HI et al., PCWG3, J
 })
 
 describe('HbA1c (Nathan DM et al., ADAG, Diabetes Care 2008; Hoelzel W et al., Clin Chem 2004; ADA 2025)', () => {
+  // Worked by hand, 28.7 x A1C - 46.7: 172.2 - 46.7 = 125.5; 200.9 - 46.7 = 154.2; 229.6 - 46.7 = 182.9.
   it.each([
-    [6, 126],
-    [7, 154],
-    [8, 183],
-  ])('A1C %i percent -> eAG %i mg/dL (28.7 x A1C - 46.7)', (a1c, mgPerDl) => {
-    expect(estimatedAverageGlucoseMgDl(a1c)).toBeCloseTo(28.7 * a1c - 46.7, 10)
+    [6, 125.5, 126],
+    [7, 154.2, 154],
+    [8, 182.9, 183],
+  ])('A1C %i percent -> eAG %d = %i mg/dL (28.7 x A1C - 46.7)', (a1c, exact, mgPerDl) => {
+    expect(estimatedAverageGlucoseMgDl(a1c)).toBeCloseTo(exact, 6)
     expect(Math.round(estimatedAverageGlucoseMgDl(a1c))).toBe(mgPerDl)
   })
 
   it('eAG in mmol/L (1.5944 x A1C - 2.5944, from memory) agrees with mg/dL / 18', () => {
-    expect(estimatedAverageGlucoseMmolL(7)).toBeCloseTo(1.5944 * 7 - 2.5944, 10)
-    expect(estimatedAverageGlucoseMmolL(7)).toBeCloseTo(estimatedAverageGlucoseMgDl(7) / 18, 1)
+    // 1.5944 x 7 = 11.1608, - 2.5944 = 8.5664 mmol/L; the mg/dL value 154.2 / 18 = 8.567.
+    expect(estimatedAverageGlucoseMmolL(7)).toBeCloseTo(8.5664, 4)
   })
 
   it('6.5 % -> 48 mmol/mol IFCC (10.93 x NGSP - 23.5)', () => {
-    expect(a1cIfccMmolPerMol(6.5)).toBeCloseTo(10.93 * 6.5 - 23.5, 10)
+    // 10.93 x 6.5 = 71.045, - 23.5 = 47.545, which rounds to 48.
+    expect(a1cIfccMmolPerMol(6.5)).toBeCloseTo(47.545, 6)
     expect(Math.round(a1cIfccMmolPerMol(6.5))).toBe(48)
   })
 
@@ -229,7 +237,9 @@ describe('HbA1c (Nathan DM et al., ADAG, Diabetes Care 2008; Hoelzel W et al., C
   })
 
   it('converts glucose with molar mass 180.16 g/mol: 16.7 mmol/L is about 300 mg/dL', () => {
-    expect(GLUCOSE_MG_DL_PER_MMOL_L).toBeCloseTo(180.16 / 10, 10)
+    // 180.16 g/mol: 1 mmol/L = 180.16 mg/L = 18.016 mg/dL; 16.7 x 18.016 = 300.87 mg/dL.
+    expect(GLUCOSE_MG_DL_PER_MMOL_L).toBe(18.016)
+    expect(glucoseToMgDl({ value: 16.7, unit: 'mmol/L' })).toBeCloseTo(300.867, 3)
     expect(Math.round(glucoseToMgDl({ value: 16.7, unit: 'mmol/L' }))).toBe(301)
     expect(glucoseToMgDl({ value: 250, unit: 'mg/dL' })).toBe(250)
   })
@@ -237,9 +247,10 @@ describe('HbA1c (Nathan DM et al., ADAG, Diabetes Care 2008; Hoelzel W et al., C
 
 describe('QTc (Bazett, Heart 1920; Fridericia, Acta Med Scand 1920; CTCAE v5.0 grade)', () => {
   it('QT 400 ms at 75 bpm: Bazett 447, Fridericia 431 (RR = 60 / 75 = 0.8 s)', () => {
-    const rr = 60 / 75
-    expect(qtcBazett(400, 75)).toBeCloseTo(400 / Math.sqrt(rr), 10)
-    expect(qtcFridericia(400, 75)).toBeCloseTo(400 / Math.cbrt(rr), 10)
+    // Worked by hand: sqrt(0.8) = 0.894427, 400 / 0.894427 = 447.214 ms (Bazett);
+    // cbrt(0.8) = 0.928318, 400 / 0.928318 = 430.887 ms (Fridericia).
+    expect(qtcBazett(400, 75)).toBeCloseTo(447.214, 3)
+    expect(qtcFridericia(400, 75)).toBeCloseTo(430.887, 3)
     expect(Math.round(qtcBazett(400, 75))).toBe(447)
     expect(Math.round(qtcFridericia(400, 75))).toBe(431)
   })
@@ -261,19 +272,23 @@ describe('QTc (Bazett, Heart 1920; Fridericia, Acta Med Scand 1920; CTCAE v5.0 g
   })
 
   it('470 ms with a rise of 65 ms from baseline is grade 3; a rise of exactly 60 is not', () => {
-    expect(qtcGrade(470, 470 - 65)).toBe(3)
-    expect(qtcGrade(470, 470 - 60)).toBe(1)
+    // Baseline 405 ms: 470 - 405 = 65 ms rise, grade 3; baseline 410 ms: 60 ms, grade 1 by value (450-480).
+    expect(qtcGrade(470, 405)).toBe(3)
+    expect(qtcGrade(470, 410)).toBe(1)
   })
 
   it('grades on Fridericia and flags above 500 ms as high risk', () => {
     // QT 400 at 75 bpm: Bazett 447 (grade 0) and Fridericia 431 (grade 0).
     expect(assessQtc(400, 75)).toMatchObject({ grade: 0, highRisk: false })
-    // QT 470 at 90 bpm: Bazett 575 would be grade 3, Fridericia 538 is grade 3 too.
+    // QT 470 at 90 bpm (RR 0.6667 s): Bazett 470 / 0.81650 = 575.63 would be grade 3,
+    // Fridericia 470 / 0.87358 = 538.02 is grade 3 too (501 ms or more, CTCAE v5.0).
     const fast = assessQtc(470, 90)
-    expect(Math.round(fast.fridericia)).toBe(Math.round(470 / Math.cbrt(60 / 90)))
-    expect(fast.grade).toBe(qtcGrade(fast.fridericia))
+    expect(fast.fridericia).toBeCloseTo(538.02, 2)
+    expect(fast.bazett).toBeCloseTo(575.63, 2)
+    expect(fast.grade).toBe(3)
     expect(fast.highRisk).toBe(true)
-    // QT 420 at 90 bpm: Bazett 514 (would be grade 3), Fridericia 481 (grade 2): Fridericia drives it.
+    // QT 420 at 90 bpm: Bazett 420 / 0.81650 = 514.39 (would be grade 3), Fridericia
+    // 420 / 0.87358 = 480.78, 481 ms as an ECG reports it (grade 2): Fridericia drives it.
     const moderate = assessQtc(420, 90)
     expect(Math.round(moderate.bazett)).toBe(514)
     expect(Math.round(moderate.fridericia)).toBe(481)
