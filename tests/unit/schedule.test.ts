@@ -18,9 +18,8 @@ const CHICAGO = 'America/Chicago'
 const HOUR = 60 * 60 * 1000
 
 describe('regimens (US prescribing information, section 2; common practice)', () => {
-  it('has the four common intervals of 4, 12, 16 and 24 weeks', () => {
-    const weeks = [4, 12, 16, 24]
-    expect(DEFAULT_REGIMENS.map(regimen => regimen.intervalDays)).toEqual(weeks.map(w => w * 7))
+  it('has the four common intervals of 4, 12, 16 and 24 weeks (28, 84, 112 and 168 days)', () => {
+    expect(DEFAULT_REGIMENS.map(regimen => regimen.intervalDays)).toEqual([28, 84, 112, 168])
   })
 
   it('uses generic names, not product names', () => {
@@ -41,9 +40,7 @@ describe('nextDueDate (US prescribing information check values)', () => {
     [16, '2025-04-28'],
     [24, '2025-06-23'],
   ])('last dose 2025-01-06 every %i weeks is due on %s', (weeks, expected) => {
-    const due = nextDueDate('2025-01-06', weeks * 7)
-    expect(due).toBe(expected)
-    expect(daysBetween('2025-01-06', due)).toBe(weeks * 7)
+    expect(nextDueDate('2025-01-06', weeks * 7)).toBe(expected)
   })
 
   it('lands on the leap day: 2024-02-01 + 28 days is 2024-02-29', () => {
@@ -143,9 +140,10 @@ describe('clinic time zone (America/Chicago, daylight saving 2025-03-09 and 2025
 })
 
 describe('scheduleStatus: every window boundary (window is a clinic setting; 7 days either side from memory)', () => {
-  // 1-month depot: last dose 2025-01-06, due 2025-02-03; window 2025-01-27 to 2025-02-10.
+  // 1-month depot: last dose 2025-01-06, due 2025-02-03 (REFERENCES.md check); a window of
+  // 7 days either side runs 2025-01-27 to 2025-02-10. Every date below is counted by hand.
   const base = { lastInjectionDate: '2025-01-06', intervalDays: 28 }
-  const due = addDays('2025-01-06', 28)
+  const due = '2025-02-03'
   const stateOn = (today: string, earlyDays?: number, lateDays?: number) =>
     scheduleStatus({ ...base, today, earlyDays, lateDays })
 
@@ -161,22 +159,24 @@ describe('scheduleStatus: every window boundary (window is a clinic setting; 7 d
 
   it('reports the due date and a window of 7 days either side', () => {
     const status = stateOn('2025-01-20')
-    expect(status.dueDate).toBe(due)
-    expect(status.windowOpens).toBe(addDays(due, -7))
-    expect(status.windowCloses).toBe(addDays(due, 7))
-    expect(status.daysToDue).toBe(daysBetween('2025-01-20', due))
+    expect(status.dueDate).toBe('2025-02-03')
+    expect(status.windowOpens).toBe('2025-01-27')
+    expect(status.windowCloses).toBe('2025-02-10')
+    // 2025-01-20 to 2025-02-03: 11 days left in January + 3 = 14.
+    expect(status.daysToDue).toBe(14)
   })
 
   it.each([
     ['the day of the last injection', '2025-01-06', 'upcoming', 28],
-    ['the day before the window opens', addDays(due, -8), 'upcoming', 8],
-    ['the day the window opens', addDays(due, -7), 'window-open', 7],
-    ['the day before the due date', addDays(due, -1), 'window-open', 1],
-    ['the due date', due, 'due-today', 0],
-    ['the day after the due date', addDays(due, 1), 'late', -1],
-    ['the day the window closes', addDays(due, 7), 'late', -7],
-    ['the day after the window closes', addDays(due, 8), 'overdue', -8],
-    ['months later', addDays(due, 90), 'overdue', -90],
+    ['the day before the window opens', '2025-01-26', 'upcoming', 8],
+    ['the day the window opens', '2025-01-27', 'window-open', 7],
+    ['the day before the due date', '2025-02-02', 'window-open', 1],
+    ['the due date', '2025-02-03', 'due-today', 0],
+    ['the day after the due date', '2025-02-04', 'late', -1],
+    ['the day the window closes', '2025-02-10', 'late', -7],
+    ['the day after the window closes', '2025-02-11', 'overdue', -8],
+    // 2025-02-03 + 90 days: 25 to 2025-02-28, 31 to 03-31, 30 to 04-30, 4 to 2025-05-04.
+    ['months later', '2025-05-04', 'overdue', -90],
   ])('on %s (%s) the state is %s', (_label, today, state, daysToDue) => {
     const status = stateOn(today)
     expect(status.state).toBe(state)
@@ -184,16 +184,17 @@ describe('scheduleStatus: every window boundary (window is a clinic setting; 7 d
   })
 
   it('follows the clinic window setting', () => {
-    expect(stateOn(addDays(due, -3), 3, 2).state).toBe('window-open')
-    expect(stateOn(addDays(due, -4), 3, 2).state).toBe('upcoming')
-    expect(stateOn(addDays(due, 2), 3, 2).state).toBe('late')
-    expect(stateOn(addDays(due, 3), 3, 2).state).toBe('overdue')
+    // 3 days early, 2 days late: the window is 2025-01-31 to 2025-02-05.
+    expect(stateOn('2025-01-31', 3, 2).state).toBe('window-open')
+    expect(stateOn('2025-01-30', 3, 2).state).toBe('upcoming')
+    expect(stateOn('2025-02-05', 3, 2).state).toBe('late')
+    expect(stateOn('2025-02-06', 3, 2).state).toBe('overdue')
   })
 
   it('with no tolerance the window is the due date alone', () => {
-    expect(stateOn(addDays(due, -1), 0, 0).state).toBe('upcoming')
-    expect(stateOn(due, 0, 0).state).toBe('due-today')
-    expect(stateOn(addDays(due, 1), 0, 0).state).toBe('overdue')
+    expect(stateOn('2025-02-02', 0, 0).state).toBe('upcoming')
+    expect(stateOn('2025-02-03', 0, 0).state).toBe('due-today')
+    expect(stateOn('2025-02-04', 0, 0).state).toBe('overdue')
   })
 
   it('puts the window across a leap day: 2024-02-01 + 28 days', () => {
@@ -217,15 +218,24 @@ describe('scheduleStatus: every window boundary (window is a clinic setting; 7 d
 })
 
 describe('suggestSite (REFERENCES: alternate sites between injections)', () => {
-  it('starts with the first site when there is no history', () => {
-    expect(suggestSite([])).toBe(SITES[0])
+  // REFERENCES.md: gluteal area, anterior thigh or deltoid, left and right: six sites.
+  const SIX_SITES: SiteCode[] = ['gluteal-left', 'gluteal-right', 'thigh-left', 'thigh-right', 'deltoid-left', 'deltoid-right']
+  const side = (site: string) => (site.endsWith('-left') ? 'left' : 'right')
+
+  it('has the six sites of the prescribing information, and sideOf reads their side', () => {
+    expect([...SITES].sort()).toEqual([...SIX_SITES].sort())
+    expect(SIX_SITES.map(sideOf)).toEqual(['left', 'right', 'left', 'right', 'left', 'right'])
+  })
+
+  it('starts with the left gluteal site when there is no history (gluteal, thigh, deltoid order; our design)', () => {
+    expect(suggestSite([])).toBe('gluteal-left')
   })
 
   it('never suggests the last site and always the other side', () => {
-    for (const site of SITES) {
+    for (const site of SIX_SITES) {
       const suggestion = suggestSite([{ site, date: '2025-01-06' }])
       expect(suggestion).not.toBe(site)
-      expect(sideOf(suggestion)).not.toBe(sideOf(site))
+      expect(side(suggestion)).not.toBe(side(site))
     }
   })
 
@@ -262,16 +272,16 @@ describe('suggestSite (REFERENCES: alternate sites between injections)', () => {
       const last = history.at(-1)
       if (last) {
         expect(site).not.toBe(last.site)
-        expect(sideOf(site)).not.toBe(sideOf(last.site))
+        expect(side(site)).not.toBe(side(last.site))
       }
       history.push({ site, date })
       date = addDays(date, 28)
     }
     const counts = new Map<SiteCode, number>()
     for (const use of history) counts.set(use.site, (counts.get(use.site) ?? 0) + 1)
-    expect([...counts.keys()].sort()).toEqual([...SITES].sort())
+    expect([...counts.keys()].sort()).toEqual([...SIX_SITES].sort())
     // Six sites, 30 doses: each site five times, and any six doses in a row cover all six.
-    for (const site of SITES) expect(counts.get(site)).toBe(5)
+    for (const site of SIX_SITES) expect(counts.get(site)).toBe(5)
     for (let start = 0; start + 6 <= history.length; start += 1) {
       expect(new Set(history.slice(start, start + 6).map(use => use.site)).size).toBe(6)
     }
@@ -280,28 +290,29 @@ describe('suggestSite (REFERENCES: alternate sites between injections)', () => {
 
 describe('flareWatch (prescribing information, Warnings; common practice; 28 days is a clinic setting)', () => {
   const first = '2025-01-06'
-  const lastDay = addDays(first, 28 - 1)
+  // 28 days counting the day of the injection: 2025-01-06 to 2025-02-02 (26 in January + 2).
+  const lastDay = '2025-02-02'
 
   it('ends on the first injection + days - 1 (last day inclusive)', () => {
-    expect(lastDay).toBe('2025-02-02')
     expect(flareWatch(first, first)).toEqual({ active: true, startsOn: first, endsOn: lastDay })
   })
 
   it('is active on the last day and over on the day after', () => {
     expect(flareWatch(first, lastDay).active).toBe(true)
-    expect(flareWatch(first, addDays(lastDay, 1)).active).toBe(false)
+    expect(flareWatch(first, '2025-02-03').active).toBe(false)
   })
 
   it('is not active before the first injection or without one', () => {
-    expect(flareWatch(first, addDays(first, -1)).active).toBe(false)
+    expect(flareWatch(first, '2025-01-05').active).toBe(false)
     expect(flareWatch(null, first)).toEqual({ active: false, startsOn: null, endsOn: null })
   })
 
   it('follows the clinic setting for its length', () => {
-    const watch = flareWatch(first, addDays(first, 41), 42)
-    expect(watch.endsOn).toBe(addDays(first, 41))
+    // 42 days from 2025-01-06: 26 in January + 16 = 2025-02-16 is the last.
+    const watch = flareWatch(first, '2025-02-16', 42)
+    expect(watch.endsOn).toBe('2025-02-16')
     expect(watch.active).toBe(true)
-    expect(flareWatch(first, addDays(first, 42), 42).active).toBe(false)
+    expect(flareWatch(first, '2025-02-17', 42).active).toBe(false)
     expect(() => flareWatch(first, first, 0)).toThrow(RangeError)
   })
 })
