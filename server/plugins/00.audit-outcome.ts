@@ -38,7 +38,7 @@ export default defineNitroPlugin((nitroApp) => {
       if (event.method !== 'GET' && event.method !== 'HEAD') return
       const busy = isWriteQueueBusy(cause) ? cause.data.retryAfter : 1
       setResponseStatus(event, 503)
-      setResponseHeader(event, 'retry-after', String(busy))
+      setResponseHeader(event, 'retry-after', busy)
       response.body = { statusCode: 503, message: 'errors.busy', data: { retryAfter: busy } }
     }
   })

@@ -70,6 +70,24 @@ describe('the outcome is recorded after the work', () => {
   })
 })
 
+describe('no patient data without its line', () => {
+  it('a read whose audit line cannot be written answers 503 without the data; a refused change is still refused', async () => {
+    const desmond = ids['LPU-1009']!
+    const nurse = await Client.signIn(app.url, 'nurse2@demo.tidewell.test')
+    await sql(app.dbPath, `CREATE TRIGGER refuse_audit BEFORE INSERT ON audit_events BEGIN SELECT RAISE(ABORT, 'refused by test'); END`)
+    try {
+      const read = await nurse.get(`/api/patients/${desmond}`)
+      expect(read.status).toBe(503)
+      expect(JSON.stringify(read.body)).not.toContain('Desmond')
+      expect(read.headers.get('retry-after')).toBe('1')
+    }
+    finally {
+      await sql(app.dbPath, 'DROP TRIGGER refuse_audit')
+    }
+    expect((await nurse.get(`/api/patients/${desmond}`)).status).toBe(200)
+  })
+})
+
 describe('the client address of a server-rendered page', () => {
   it('a staff page of a patient rendered on the server records 127.0.0.1, not a header the browser sent', async () => {
     const cyril = ids['LPU-1008']!
