@@ -125,24 +125,25 @@ describe('reading results', () => {
     expect(results.length).toBeGreaterThan(3)
     expect([...results].map(r => r.takenOn)).toEqual([...results].map(r => r.takenOn).sort().reverse())
     expect(results.every(r => r.level === 'none')).toBe(true)
-    // 0.55 nmol/L / 0.03467 = 15.9 ng/dL: castrate and below the stricter 20 ng/dL.
+    // 0.55 nmol/L / 0.03467 = 15.864 ng/dL (REFERENCES.md, testosterone): castrate and below the stricter 20 ng/dL.
     const nmol = results.find(r => r.kind === 'testosterone' && r.unit === 'nmol/L')!
     expect(nmol.interpretation).toMatchObject({ castrate: true, belowStrictLevel: true })
-    expect(nmol.interpretation.ngPerDl as number).toBeCloseTo(0.55 / 0.03467, 6)
+    expect(nmol.interpretation.ngPerDl as number).toBeCloseTo(15.864, 3)
     // His PSA falls and the latest is the lowest (no value since the nadir): "not rising", never a number.
     const latestPsa = results.find(r => r.kind === 'psa')!
     expect(latestPsa.interpretation).toMatchObject({ valuesUsed: 0, doubling: { status: 'not-rising' } })
-    // QT 398 ms at 68 bpm: Fridericia 398 / cbrt(60/68) = 415 ms, grade 0.
+    // QT 398 ms at 68 bpm: RR = 60 / 68 = 0.88235 s, cbrt = 0.95914, Fridericia 398 / 0.95914 = 414.96 ms, grade 0.
     const qtc = results.find(r => r.kind === 'qtc')!
-    expect(Math.round(qtc.interpretation.fridericia as number)).toBe(Math.round(398 / Math.cbrt(60 / 68)))
+    expect(qtc.interpretation.fridericia as number).toBeCloseTo(414.96, 1)
     expect(qtc.interpretation.grade).toBe(0)
   })
 
   it('gives HbA1c its eAG and IFCC units, and a rising PSA its doubling time', async () => {
     const franklin = (await nurse.get(`/api/patients/${ids['LPU-1005']}/labs`)).body.results as { kind: string, interpretation: Record<string, number> }[]
     const a1c = franklin.find(r => r.kind === 'hba1c')!.interpretation
-    expect(Math.round(a1c.eagMgDl!)).toBe(Math.round(28.7 * 6.8 - 46.7))
-    expect(Math.round(a1c.ifccMmolPerMol!)).toBe(Math.round(10.93 * 6.8 - 23.5))
+    // HbA1c 6.8 %: ADAG 28.7 x 6.8 - 46.7 = 195.16 - 46.7 = 148.46 mg/dL; IFCC 10.93 x 6.8 - 23.5 = 74.324 - 23.5 = 50.824 mmol/mol.
+    expect(a1c.eagMgDl!).toBeCloseTo(148.46, 2)
+    expect(a1c.ifccMmolPerMol!).toBeCloseTo(50.824, 3)
     const odell = (await nurse.get(`/api/patients/${ids['LPU-1004']}/labs`)).body.results as { kind: string, interpretation: { doubling: { status: string, months: number } } }[]
     const psa = odell.find(r => r.kind === 'psa')!.interpretation.doubling
     expect(psa.status).toBe('rising')
