@@ -132,7 +132,7 @@ const SOURCES = {
   vomiting: 'Vomiting or not keeping fluids down: routine review, common practice',
   hypercalcaemia: 'Vomiting with confusion may be high calcium from bone metastases: same-day call, common practice',
   falls: 'GnRH-agonist depot prescribing information, Warnings (loss of bone mineral density); a fall is reviewed: common practice',
-  fracture: 'A fall with injury, a hit head or a leg that cannot bear weight may be a fracture (bone loss on therapy): same day, common practice',
+  fracture: 'GnRH-agonist depot prescribing information, Warnings (loss of bone mineral density); a fall with injury, a hit head or a leg that cannot bear weight may be a fracture: same day, common practice',
   hypersensitivity: 'GnRH-agonist depot prescribing information (hypersensitivity reactions, injection-site reactions); routine review: common practice',
   spreadingRash: 'A spreading rash or hives, or swollen lips or eyes, may be a hypersensitivity reaction (prescribing information): same day, common practice',
   confusion: 'New confusion or unusual drowsiness (delirium: infection, high calcium, low sugar, the brain): same day, common practice',
@@ -438,27 +438,27 @@ export function baselineOf(previous: readonly DiaryEntryInput[]): Baseline | nul
 export const IPSS_RISE = 3
 
 
-function baselineRule(id: string, symptomRules: readonly string[], value: (entry: DiaryEntryInput) => number, last: (baseline: Baseline) => number): RaiseRule {
+function baselineRule(id: string, symptomRules: readonly string[], value: (entry: DiaryEntryInput) => number, last: (baseline: Baseline) => number, source: string = SOURCES.basch): RaiseRule {
   return {
     id,
     raisedBy: 'baseline',
     symptomRules,
     atLeast: 'routine',
     atMost: 'urgent',
-    source: SOURCES.basch,
+    source,
     ...keys(id),
     test: (entry, { baseline }) => baseline !== null && value(entry) - last(baseline) >= WORSENING_POINTS,
   }
 }
 
-function flareRule(id: string, symptomRules: readonly string[], atLeast: TriageLevel, atMost: TriageLevel, test: (entry: DiaryEntryInput) => boolean): RaiseRule {
+function flareRule(id: string, symptomRules: readonly string[], atLeast: TriageLevel, atMost: TriageLevel, test: (entry: DiaryEntryInput) => boolean, source = `${SOURCES.flare}; ${SOURCES.nice}`): RaiseRule {
   return {
     id,
     raisedBy: 'flare-watch',
     symptomRules,
     atLeast,
     atMost,
-    source: `${SOURCES.flare}; ${SOURCES.nice}`,
+    source,
     ...keys(id),
     test: (entry, context) => context.flareWatchActive && test(entry),
   }
@@ -505,7 +505,8 @@ export const RAISE_RULES: readonly RaiseRule[] = [
   baselineRule('baseline-injection-site', ['injection-site-infection', 'injection-site-signs'], injectionSiteGrade, last => last.injectionSite),
   baselineRule('baseline-diarrhoea', ['diarrhoea-grade-3', 'diarrhoea-grade-2'], diarrhoeaGrade, last => last.diarrhoea),
   baselineRule('baseline-constipation', ['constipation-no-movement', 'constipation-persistent'], constipationGrade, last => last.constipation),
-  baselineRule('baseline-mood', ['phq2-positive'], ({ mood }) => mood.phq2Interest + mood.phq2Down, last => last.mood),
+  // The points compared are the PHQ-2's, so its source is named beside Basch's.
+  baselineRule('baseline-mood', ['phq2-positive'], ({ mood }) => mood.phq2Interest + mood.phq2Down, last => last.mood, `${SOURCES.basch}; ${SOURCES.kroenke}`),
   // The IPSS has 35 points, not a 5-point scale: a rise of 3 since his last IPSS.
   {
     id: 'baseline-ipss',
@@ -530,8 +531,11 @@ export const RAISE_RULES: readonly RaiseRule[] = [
   // Mild new or worse pain (1 or more): one step up, at least routine, at most urgent.
   flareRule('flare-watch-mild-bone-pain', PAIN_RULES, 'routine', 'urgent', ({ pain }) =>
     pain.worst >= 1 && pain.newOrWorse),
+  // The flare's urinary obstruction is the prescribing information's warning; NICE NG234
+  // (spinal cord compression) is not its basis.
   flareRule('flare-watch-urinary', ['right-now-cannot-pass-urine', 'ipss-severe', 'weak-stream'], 'urgent', 'emergency', ({ urinary, rightNow }) =>
-    urinary.weakStreamOrStraining || rightNow.cannotPassUrine),
+    urinary.weakStreamOrStraining || rightNow.cannotPassUrine,
+  'GnRH-agonist depot prescribing information, Warnings (tumour flare; urinary tract obstruction); common practice'),
   flareRule('flare-watch-tingling', ['right-now-numbness', 'tingling-or-numbness', 'spinal-pain-neurological'], 'urgent', 'emergency', ({ pain, rightNow }) =>
     pain.tinglingOrNumbness || rightNow.newNumbness),
 

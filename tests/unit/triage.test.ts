@@ -335,7 +335,7 @@ const CASES: Record<string, RuleCase> = {
     // REFERENCES.md, flare: urinary obstruction in the flare is the prescribing information's
     // warning (common practice); NG234 is about spinal cord compression, not a weak stream.
     source: 'prescribing information Warnings (tumour flare, urinary obstruction); common practice',
-    sourceDisagreement: 'the rule also names NICE NG234 (every flare-watch rule shares one source), which is not the basis of a urinary flare', level: 'urgent',
+    level: 'urgent',
     fires: entryWith(weakStream),
     misses: entryWith(weakStream),
     context: { flareWatchActive: true },
@@ -427,7 +427,7 @@ const CASES: Record<string, RuleCase> = {
   },
   'baseline-mood': {
     source: 'Basch 2016: 2 points since the last report, from memory; PHQ-2 (Kroenke 2003)',
-    sourceDisagreement: 'the rule names Basch only, not the PHQ-2 (Kroenke 2003) whose points it counts', level: 'routine',
+    level: 'routine',
     fires: entryWith(e => (e.mood = { phq2Interest: 1, phq2Down: 1 })),
     misses: entryWith(e => (e.mood = { phq2Interest: 1, phq2Down: 1 })),
     context: { baseline: [entryWith()] },
@@ -492,7 +492,7 @@ const CASES: Record<string, RuleCase> = {
   },
   'fall-injury': {
     source: 'prescribing information Warnings (bone loss); common practice (possible fracture)',
-    sourceDisagreement: 'the rule says "bone loss on therapy" but names no document (the "fall" rule names the prescribing information)', level: 'urgent',
+    level: 'urgent',
     fires: entryWith(yes('falls'), yes('falls', 'cannotBearWeight')),
     misses: entryWith(yes('falls')),
   },
