@@ -9,7 +9,6 @@
 export default defineNitroPlugin((nitroApp) => {
   const secure = new URL(useRuntimeConfig().publicUrl).protocol === 'https:'
   nitroApp.hooks.hook('request', (event) => {
-    const session = useRuntimeConfig(event).session
-    session.cookie = { ...session.cookie, secure }
+    Object.assign(useRuntimeConfig(event).session.cookie, { secure })
   })
 })
