@@ -1,6 +1,7 @@
 import { defineStore } from 'pinia'
 import { RIGHT_NOW_ITEMS } from '~~/shared/clinical/triage'
 import type { RightNowItem } from '~~/shared/clinical/triage'
+import type { GlucoseUnit } from '~~/shared/clinical/labs'
 import { emptyDiaryEntry, withDiaryDefaults } from '~~/shared/schemas/diary'
 import type { DiaryEntryInput } from '~~/shared/schemas/diary'
 
@@ -23,7 +24,6 @@ export type DiaryDraft = Omit<DiaryEntryInput, 'urinary' | 'rightNow'> & {
   urinary: Omit<DiaryEntryInput['urinary'], 'ipss'> & { ipss?: IpssDraft }
 }
 
-export type GlucoseUnit = 'mg/dL' | 'mmol/L'
 export type TemperatureUnit = '°C' | '°F'
 
 /** Where the right-now report stands: nothing to send, on its way, refused or unreachable, delivered. */
@@ -36,7 +36,6 @@ interface SavedDraft {
   step: number
   glucoseUnit: GlucoseUnit
   temperatureUnit: TemperatureUnit
-  rightNowAcknowledged: boolean
   ipssDecided: boolean
   /** Right-now items the server has confirmed, and when. */
   rightNowSent: RightNowItem[]
@@ -108,8 +107,6 @@ export const useDiaryDraftStore = defineStore('diary-draft', () => {
   const step = ref(0)
   const glucoseUnit = ref<GlucoseUnit>('mg/dL')
   const temperatureUnit = ref<TemperatureUnit>('°F')
-  /** He has seen the emergency instructions and chose to go on with the diary. */
-  const rightNowAcknowledged = ref(false)
   /** The monthly IPSS questions were opened for him, or he chose to leave them this time. */
   const ipssDecided = ref(false)
   const hydrated = ref(false)
@@ -139,7 +136,6 @@ export const useDiaryDraftStore = defineStore('diary-draft', () => {
     step.value = 0
     glucoseUnit.value = 'mg/dL'
     temperatureUnit.value = '°F'
-    rightNowAcknowledged.value = false
     ipssDecided.value = false
     rightNowSent.value = []
     rightNowSentAt.value = null
@@ -161,7 +157,6 @@ export const useDiaryDraftStore = defineStore('diary-draft', () => {
         step.value = Number.isInteger(saved.step) ? Number(saved.step) : 0
         glucoseUnit.value = saved.glucoseUnit === 'mmol/L' ? 'mmol/L' : 'mg/dL'
         temperatureUnit.value = saved.temperatureUnit === '°C' ? '°C' : '°F'
-        rightNowAcknowledged.value = saved.rightNowAcknowledged === true
         ipssDecided.value = saved.ipssDecided === true
         rightNowSent.value = Array.isArray(saved.rightNowSent) ? RIGHT_NOW_ITEMS.filter(item => saved.rightNowSent!.includes(item)) : []
         rightNowSentAt.value = typeof saved.rightNowSentAt === 'string' ? saved.rightNowSentAt : null
@@ -193,7 +188,6 @@ export const useDiaryDraftStore = defineStore('diary-draft', () => {
       step: step.value,
       glucoseUnit: glucoseUnit.value,
       temperatureUnit: temperatureUnit.value,
-      rightNowAcknowledged: rightNowAcknowledged.value,
       ipssDecided: ipssDecided.value,
       rightNowSent: rightNowSent.value,
       rightNowSentAt: rightNowSentAt.value,
@@ -206,7 +200,7 @@ export const useDiaryDraftStore = defineStore('diary-draft', () => {
     }
   }
 
-  watch([draft, step, glucoseUnit, temperatureUnit, rightNowAcknowledged, ipssDecided, rightNowSent, rightNowSentAt], save, { deep: true })
+  watch([draft, step, glucoseUnit, temperatureUnit, ipssDecided, rightNowSent, rightNowSentAt], save, { deep: true })
 
   function scheduleRetry() {
     stopRetrying()
@@ -297,7 +291,6 @@ export const useDiaryDraftStore = defineStore('diary-draft', () => {
     step,
     glucoseUnit,
     temperatureUnit,
-    rightNowAcknowledged,
     ipssDecided,
     hydrated,
     rightNowSent,

@@ -152,8 +152,7 @@ export function psaDoublingTimeFromResults(results: readonly PsaResult[]): Dated
  * average glucose mg/dL = 28.7 x A1C - 46.7 (mmol/L = 1.5944 x A1C - 2.5944, from
  * memory). IFCC units: mmol/mol = 10.93 x NGSP % - 23.5 (Hoelzel W et al., Clin Chem
  * 2004;50:166-174). Categories: ADA Standards of Care 2025, Diabetes Care 48(Suppl 1):
- * diabetes A1C >= 6.5 %, prediabetes 5.7-6.4 %; fasting glucose >= 126 mg/dL diabetes,
- * 100-125 prediabetes.
+ * diabetes A1C >= 6.5 %, prediabetes 5.7-6.4 %.
  */
 export function estimatedAverageGlucoseMgDl(a1cPercent: number): number {
   // Worked in tenths so that 6 % gives exactly 125.5 (the published 126), not 125.4999...
@@ -176,18 +175,11 @@ export function a1cCategory(a1cPercent: number): GlycaemicCategory {
   return 'normal'
 }
 
-export function fastingGlucoseCategory(mgPerDl: number): GlycaemicCategory {
-  if (mgPerDl >= 126) return 'diabetes'
-  if (mgPerDl >= 100) return 'prediabetes'
-  return 'normal'
-}
-
 /*
  * Glucose units. Molar mass of glucose 180.16 g/mol, so 1 mmol/L = 180.16 mg/L =
  * 18.016 mg/dL.
  */
-export const GLUCOSE_UNITS = ['mg/dL', 'mmol/L'] as const
-export type GlucoseUnit = (typeof GLUCOSE_UNITS)[number]
+export type GlucoseUnit = 'mg/dL' | 'mmol/L'
 export const GLUCOSE_MG_DL_PER_MMOL_L = 18.016
 
 export function glucoseToMgDl(reading: { value: number, unit: GlucoseUnit }): number {

@@ -60,20 +60,6 @@ export function hotFlushScoreFromDiary(perDay: number, worstSeverity: HotFlushSe
 }
 
 /*
- * Pain numeric rating scale bands. Serlin RC et al., "When is cancer pain mild, moderate
- * or severe?", Pain 1995;61:277-284: 0 none, 1-4 mild, 5-6 moderate, 7-10 severe.
- */
-export type PainBand = 'none' | 'mild' | 'moderate' | 'severe'
-
-export function painBand(score: number): PainBand {
-  requireInteger(score, 'Pain score', 0, 10)
-  if (score === 0) return 'none'
-  if (score <= 4) return 'mild'
-  if (score <= 6) return 'moderate'
-  return 'severe'
-}
-
-/*
  * International Prostate Symptom Score (the AUA symptom index). Barry MJ et al.,
  * J Urol 1992;148:1549-1557. Seven items scored 0-5 (incomplete emptying, frequency,
  * intermittency, urgency, weak stream, straining, nocturia), total 0-35: mild 0-7,
@@ -136,16 +122,6 @@ export function gradeHotFlashes(hotFlushes: {
   if (hotFlushes.interference === 'usual-activities') return 2
   const present = hotFlushes.perDay > 0 || hotFlushes.worstSeverity !== 'none'
   return present ? 1 : 0
-}
-
-/**
- * Pain (bone, back), CTCAE v5.0: 1 mild; 2 moderate, limiting instrumental ADL;
- * 3 severe, limiting self-care. CTCAE does not map numeric scores to grades: this mapping
- * of the Serlin bands (mild 1-4 -> 1, moderate 5-6 -> 2, severe 7-10 -> 3) is our design.
- */
-export function gradePain(worst: number): CtcaeGrade {
-  const grades: Record<PainBand, CtcaeGrade> = { none: 0, mild: 1, moderate: 2, severe: 3 }
-  return grades[painBand(worst)]
 }
 
 /**

@@ -8,7 +8,6 @@ import {
   castrateStatus,
   estimatedAverageGlucoseMgDl,
   estimatedAverageGlucoseMmolL,
-  fastingGlucoseCategory,
   glucoseToMgDl,
   psaDoublingTime,
   psaDoublingTimeFromResults,
@@ -227,13 +226,6 @@ describe('HbA1c (Nathan DM et al., ADAG, Diabetes Care 2008; Hoelzel W et al., C
     expect(a1cCategory(5.7)).toBe('prediabetes')
     expect(a1cCategory(6.4)).toBe('prediabetes')
     expect(a1cCategory(6.5)).toBe('diabetes')
-  })
-
-  it('ADA fasting glucose: 100-125 prediabetes, 126 or more diabetes', () => {
-    expect(fastingGlucoseCategory(99)).toBe('normal')
-    expect(fastingGlucoseCategory(100)).toBe('prediabetes')
-    expect(fastingGlucoseCategory(125)).toBe('prediabetes')
-    expect(fastingGlucoseCategory(126)).toBe('diabetes')
   })
 
   it('converts glucose with molar mass 180.16 g/mol: 16.7 mmol/L is about 300 mg/dL', () => {

@@ -4,11 +4,9 @@ import {
   gradeFatigue,
   gradeHotFlashes,
   gradeInjectionSite,
-  gradePain,
   hotFlushScore,
   hotFlushScoreFromDiary,
   ipss,
-  painBand,
   phq2,
 } from '../../shared/clinical/scores'
 
@@ -53,26 +51,6 @@ describe('hot-flush score (Sloan JA et al., J Clin Oncol 2001; weights from memo
 
   it('refuses a negative count', () => {
     expect(() => hotFlushScore({ mild: -1 })).toThrow(RangeError)
-  })
-})
-
-describe('pain bands (Serlin RC et al., Pain 1995: 0 none, 1-4 mild, 5-6 moderate, 7-10 severe)', () => {
-  it.each([
-    [0, 'none'],
-    [1, 'mild'],
-    [4, 'mild'],
-    [5, 'moderate'],
-    [6, 'moderate'],
-    [7, 'severe'],
-    [10, 'severe'],
-  ])('%i is %s', (score, band) => {
-    expect(painBand(score)).toBe(band)
-  })
-
-  it('refuses scores outside 0-10 or not whole', () => {
-    expect(() => painBand(-1)).toThrow(RangeError)
-    expect(() => painBand(11)).toThrow(RangeError)
-    expect(() => painBand(4.5)).toThrow(RangeError)
   })
 })
 
@@ -135,11 +113,6 @@ describe('CTCAE v5.0 grades', () => {
 
   it('hot flashes: the grade follows the interference, not the worst severity (our design)', () => {
     expect(gradeHotFlashes({ perDay: 2, worstSeverity: 'very-severe', interference: 'none' })).toBe(1)
-  })
-
-  it('pain: our mapping of the Serlin bands onto grades 1-3 (CTCAE gives no numbers)', () => {
-    const cases: [number, number][] = [[0, 0], [1, 1], [4, 1], [5, 2], [6, 2], [7, 3], [10, 3]]
-    for (const [score, grade] of cases) expect(gradePain(score), `pain ${score}`).toBe(grade)
   })
 
   it('fatigue: 1 eased by rest, 2 limits usual activities, 3 limits self-care', () => {

@@ -36,9 +36,7 @@ export default defineEventHandler(async (event) => {
         sourceKey: `lab:${created.id}`,
         level: result.level,
         reasons: result.reasons,
-        respondBy: result.level === 'urgent'
-          ? new Date(now.getTime() + settings.urgentResponseHours * 3600_000)
-          : respondBy(result.level, now, { urgentHours: settings.urgentResponseHours, routineWorkingDays: settings.routineResponseWorkingDays }, settings.timeZone),
+        respondBy: respondBy(result.level, now, { urgentHours: settings.urgentResponseHours, routineWorkingDays: settings.routineResponseWorkingDays }, settings.timeZone),
         at: now,
       }, transaction)
     }
