@@ -1,4 +1,4 @@
-import type { Disposition, TriageItemStatus, TriageSource } from '~~/shared/schemas/triage'
+import type { Disposition, TriageItemStatus, TriageSource } from '#shared/schemas/triage'
 
 const MINUTE = 60_000
 

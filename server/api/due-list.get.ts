@@ -1,7 +1,7 @@
 import { Op } from 'sequelize'
-import { dueGroup } from '../../shared/scheduling/planning'
-import { OPEN_APPOINTMENT_STATUSES } from '../../shared/scheduling/types'
-import type { DueListRow } from '../../shared/types/schedule'
+import { dueGroup } from '#shared/scheduling/planning'
+import { OPEN_APPOINTMENT_STATUSES } from '#shared/scheduling/types'
+import type { DueListRow } from '#shared/types/schedule'
 import { Appointment, Patient, User } from '../db/models'
 
 /**

@@ -2,7 +2,7 @@ import type { H3Event } from 'h3'
 import { createError, getRouterParam } from 'h3'
 import { Op } from 'sequelize'
 import type { User as SessionUser } from '#auth-utils'
-import type { Role } from '../../shared/types/roles'
+import type { Role } from '#shared/types/roles'
 import { CareGrant, Patient } from '../db/models'
 
 /**

@@ -1,5 +1,5 @@
 import { User } from '../db/models'
-import type { Attribution } from '../../shared/types/attribution'
+import type { Attribution } from '#shared/types/attribution'
 
 /**
  * Who made each row on a patient's record, in one query for a whole list: give it the

@@ -3,8 +3,8 @@ import { Op } from 'sequelize'
 import type { WhereOptions } from 'sequelize'
 import type { AuditEvent } from '../db/models'
 import { Patient, User } from '../db/models'
-import type { AuditQuery } from '../../shared/schemas/circle'
-import type { Role } from '../../shared/types/roles'
+import type { AuditQuery } from '#shared/schemas/circle'
+import type { Role } from '#shared/types/roles'
 
 export const AUDIT_PAGE_SIZE = 50
 

@@ -1,7 +1,7 @@
 import type { H3Event } from 'h3'
 import type { Transaction } from 'sequelize'
 import { AuditEvent } from '../db/models'
-import type { AuditOutcome } from '../../shared/types/audit'
+import type { AuditOutcome } from '#shared/types/audit'
 
 /*
  * What happened, as the audit trail records it (DEVELOPERS.md "Audit outcomes"):

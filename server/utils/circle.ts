@@ -3,8 +3,8 @@ import { createError, getRouterParam } from 'h3'
 import type { Transaction } from 'sequelize'
 import type { CareGrant } from '../db/models'
 import { CircleInvitation, OneTimeToken, User } from '../db/models'
-import type { Role } from '../../shared/types/roles'
-import { isStaff } from '../../shared/types/roles'
+import type { Role } from '#shared/types/roles'
+import { isStaff } from '#shared/types/roles'
 
 /** A person as the circle pages show him: name and role, and whether staff acted for the patient. */
 function personOf(user: User | null | undefined) {

@@ -1,8 +1,8 @@
 import { Op } from 'sequelize'
 import type { Transaction } from 'sequelize'
-import { CONTACT_PREFERENCES } from '../../shared/schemas/contact'
-import type { ContactPreference } from '../../shared/schemas/contact'
-import type { CaregiverContactView, PatientContactView } from '../../shared/types/contact'
+import { CONTACT_PREFERENCES } from '#shared/schemas/contact'
+import type { ContactPreference } from '#shared/schemas/contact'
+import type { CaregiverContactView, PatientContactView } from '#shared/types/contact'
 import type { Patient } from '../db/models'
 import { CareGrant, User } from '../db/models'
 

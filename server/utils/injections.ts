@@ -1,5 +1,5 @@
 import type { Injection } from '../db/models'
-import type { InjectionView } from '../../shared/types/schedule'
+import type { InjectionView } from '#shared/types/schedule'
 
 /** One injection as the pages see it (regimen and givenBy included by the query). */
 export function shapeInjection(injection: Injection): InjectionView {

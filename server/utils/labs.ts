@@ -1,7 +1,7 @@
 import type { Transaction } from 'sequelize'
-import { evaluateLabTriage, interpretLab } from '../../shared/clinical/lab-triage'
-import type { LabContext, LabReading } from '../../shared/clinical/lab-triage'
-import type { LabResultView } from '../../shared/types/labs'
+import { evaluateLabTriage, interpretLab } from '#shared/clinical/lab-triage'
+import type { LabContext, LabReading } from '#shared/clinical/lab-triage'
+import type { LabResultView } from '#shared/types/labs'
 import { Injection, LabResult, User } from '../db/models'
 
 function readingOf(result: LabResult): LabReading {

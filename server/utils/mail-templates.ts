@@ -1,4 +1,4 @@
-import type { Language } from '../../shared/types/roles'
+import type { Language } from '#shared/types/roles'
 
 export interface RenderedMail {
   subject: string

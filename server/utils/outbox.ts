@@ -3,7 +3,7 @@ import { Op } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { OutboxMessage } from '../db/models'
 import type { OutboxAttachment } from '../db/models/outbox-message'
-import type { Language } from '../../shared/types/roles'
+import type { Language } from '#shared/types/roles'
 
 /** The longest an ordinary e-mail waits between two tries. */
 export const MAX_BACKOFF_MS = 60 * 60 * 1000

@@ -1,6 +1,6 @@
 import { dictionary } from '@zxcvbn-ts/language-common'
 import { OneTimeToken, User } from '../db/models'
-import { newPasswordSchema } from '../../shared/schemas/auth'
+import { newPasswordSchema } from '#shared/schemas/auth'
 
 // The common-password list that ships with zxcvbn-ts (about 30,000 entries, lower case).
 const COMMON = new Set<string>(dictionary['passwords-common'] as string[])

@@ -1,6 +1,6 @@
 import en from '../../locales/en.json'
 import es from '../../locales/es.json'
-import type { Language } from '../../shared/types/roles'
+import type { Language } from '#shared/types/roles'
 
 const MESSAGES: Record<Language, Record<string, unknown>> = { en, es }
 

@@ -1,7 +1,7 @@
 import { Op } from 'sequelize'
 import type { Transaction } from 'sequelize'
-import type { TriageLevel, TriageReason } from '../../shared/clinical/triage'
-import type { TriageSource } from '../../shared/schemas/triage'
+import type { TriageLevel, TriageReason } from '#shared/clinical/triage'
+import type { TriageSource } from '#shared/schemas/triage'
 import type { DiaryEntry } from '../db/models'
 import { Patient, TriageEvent, TriageItem, User } from '../db/models'
 

@@ -1,7 +1,7 @@
 import { Op } from 'sequelize'
-import { riskProfileOf } from '../../shared/clinical/risk-profile'
-import { daysBetween } from '../../shared/clinical/schedule'
-import type { TriageDetailView, TriageRowView } from '../../shared/types/triage'
+import { riskProfileOf } from '#shared/clinical/risk-profile'
+import { daysBetween } from '#shared/clinical/schedule'
+import type { TriageDetailView, TriageRowView } from '#shared/types/triage'
 import { DiaryEntry, Patient, TriageEvent, TriageItem, User } from '../db/models'
 
 /** A queue row: enough to choose what to open next; the name only ever goes to staff. */

@@ -1,6 +1,6 @@
 import { stringify } from 'csv-stringify/sync'
 import { AuditEvent } from '../../db/models'
-import { auditQuerySchema } from '../../../shared/schemas/circle'
+import { auditQuerySchema } from '#shared/schemas/circle'
 
 const COLUMNS = ['id', 'at', 'actor_user_id', 'actor_name', 'actor_email', 'actor_role', 'patient_id', 'patient_clinic_number', 'patient_name', 'action', 'resource', 'outcome', 'ip']
 

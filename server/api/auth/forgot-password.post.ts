@@ -1,4 +1,4 @@
-import { forgotPasswordSchema } from '../../../shared/schemas/auth'
+import { forgotPasswordSchema } from '#shared/schemas/auth'
 
 /**
  * Always the same answer, at once, whether or not the e-mail belongs to an account: the

@@ -1,4 +1,4 @@
-import { ownPhoneSchema } from '../../../shared/schemas/contact'
+import { ownPhoneSchema } from '#shared/schemas/contact'
 import { User } from '../../db/models'
 
 /**

@@ -1,7 +1,7 @@
 import type { Transaction } from 'sequelize'
-import { FIXED_UNITS } from '../../../shared/clinical/lab-triage'
-import type { LabKind } from '../../../shared/clinical/lab-triage'
-import { addDays, localDate } from '../../../shared/clinical/schedule'
+import { FIXED_UNITS } from '#shared/clinical/lab-triage'
+import type { LabKind } from '#shared/clinical/lab-triage'
+import { addDays, localDate } from '#shared/clinical/schedule'
 import { DEFAULT_SETTINGS } from '../../utils/settings'
 import { ClinicSetting, LabResult, Patient, User } from '../models'
 

@@ -1,7 +1,7 @@
 import type { Transaction } from 'sequelize'
-import { addDays, localDate, suggestSite, zonedDateTimeToUtc } from '../../../shared/clinical/schedule'
-import type { SiteUse } from '../../../shared/clinical/schedule'
-import { candidateDates } from '../../../shared/scheduling/planning'
+import { addDays, localDate, suggestSite, zonedDateTimeToUtc } from '#shared/clinical/schedule'
+import type { SiteUse } from '#shared/clinical/schedule'
+import { candidateDates } from '#shared/scheduling/planning'
 import { DEFAULT_SETTINGS } from '../../utils/settings'
 import { Appointment, AppointmentChangeRequest, ClinicSetting, Injection, Patient, PatientRegimen, Regimen, User } from '../models'
 

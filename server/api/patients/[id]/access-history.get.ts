@@ -1,5 +1,5 @@
 import { User } from '../../../db/models'
-import { pageQuerySchema } from '../../../../shared/schemas/circle'
+import { pageQuerySchema } from '#shared/schemas/circle'
 
 /**
  * The patient's own view of the audit trail: who (staff or his caregivers) looked at or

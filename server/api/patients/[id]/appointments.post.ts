@@ -1,7 +1,7 @@
 import { Op } from 'sequelize'
-import { zonedDateTimeToUtc } from '../../../../shared/clinical/schedule'
-import { scheduleAppointmentSchema } from '../../../../shared/schemas/schedule'
-import { OPEN_APPOINTMENT_STATUSES } from '../../../../shared/scheduling/types'
+import { zonedDateTimeToUtc } from '#shared/clinical/schedule'
+import { scheduleAppointmentSchema } from '#shared/schemas/schedule'
+import { OPEN_APPOINTMENT_STATUSES } from '#shared/scheduling/types'
 import { Appointment, AppointmentChangeRequest, User } from '../../../db/models'
 
 /**

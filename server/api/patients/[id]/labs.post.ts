@@ -1,6 +1,6 @@
-import { FIXED_UNITS } from '../../../../shared/clinical/lab-triage'
-import { respondBy } from '../../../../shared/clinical/triage'
-import { labResultSchema } from '../../../../shared/schemas/labs'
+import { FIXED_UNITS } from '#shared/clinical/lab-triage'
+import { respondBy } from '#shared/clinical/triage'
+import { labResultSchema } from '#shared/schemas/labs'
 import { LabResult } from '../../../db/models'
 
 /**

@@ -1,6 +1,6 @@
-import { riskProfileOf } from '../../../../shared/clinical/risk-profile'
-import { riskProfileSchema } from '../../../../shared/schemas/risk-profile'
-import type { RiskProfileView } from '../../../../shared/types/contact'
+import { riskProfileOf } from '#shared/clinical/risk-profile'
+import { riskProfileSchema } from '#shared/schemas/risk-profile'
+import type { RiskProfileView } from '#shared/types/contact'
 
 /**
  * Sets his risk profile (nurses and clinicians). Entries from now on are triaged with it;
