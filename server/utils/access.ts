@@ -7,7 +7,8 @@ import { CareGrant, Patient } from '../db/models'
 
 /**
  * Who may do what to which patient. Every handler that touches patient data goes through
- * authorizePatient(); the decision itself is the pure table in can().
+ * authorizePatient(); the decision itself is the pure table in can(), and it is the whole
+ * policy: a patient route asks for one action here and never checks a role itself.
  */
 export const PATIENT_ACTIONS = [
   'patient.read', // schedule, diary, injections, results
@@ -15,7 +16,8 @@ export const PATIENT_ACTIONS = [
   'appointment.respond', // confirm or ask for another time
   'appointment.schedule', // book or move an appointment
   'injection.record', // record an injection given
-  'patient.manage', // roster details, labs
+  'regimen.set', // put him on a regimen from a date
+  'labs.record', // enter a lab or ECG result
   'circle.read', // see who is in the care circle
   'circle.manage', // invite, change or remove caregivers
   'access-history.read', // the patient's own view of the audit trail
@@ -38,9 +40,9 @@ export type Relation =
   | { kind: 'none' }
 
 const STAFF_ALLOWED: Record<'nurse' | 'clinician' | 'admin', readonly PatientAction[]> = {
-  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read', 'circle.manage', 'triage.work', 'risk-profile.manage', 'contact.manage'],
-  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'patient.manage', 'circle.read', 'triage.work', 'risk-profile.manage', 'contact.manage'],
-  admin: ['patient.read', 'appointment.schedule', 'patient.manage', 'circle.read', 'circle.manage', 'contact.manage'],
+  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'regimen.set', 'labs.record', 'circle.read', 'circle.manage', 'triage.work', 'risk-profile.manage', 'contact.manage'],
+  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'regimen.set', 'labs.record', 'circle.read', 'triage.work', 'risk-profile.manage', 'contact.manage'],
+  admin: ['patient.read', 'appointment.schedule', 'circle.read', 'circle.manage', 'contact.manage'],
 }
 
 const SELF_ALLOWED: readonly PatientAction[] = [
@@ -96,6 +98,8 @@ export interface PatientAccess {
   /** The caregiver's grant when a caregiver is acting. */
   grant: CareGrant | null
   relation: Relation['kind']
+  /** Whether the same person, in the same relation, may also do another action (what the page may offer). */
+  allows: (action: PatientAction) => boolean
 }
 
 /**
@@ -124,7 +128,7 @@ export async function authorizePatient(event: H3Event, patientId: number, action
   // Granted: the line is written when the request ends, with what happened (done, refused
   // as invalid, ...): server/plugins/00.audit-outcome.ts.
   if (audited) deferAudit(event, line)
-  return { user, patient, grant, relation: relation.kind }
+  return { user, patient, grant, relation: relation.kind, allows: other => can(user.role, relation, other) }
 }
 
 /** The numeric route parameter, or 0 when it is not one (authorizePatient then answers 404). */

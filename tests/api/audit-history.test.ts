@@ -47,10 +47,10 @@ describe('the outcome is recorded after the work', () => {
     }
     const lines = await sql<{ outcome: string, action: string, ip: string }>(app.dbPath, 'SELECT outcome, action, ip FROM audit_events WHERE id > ? AND patient_id = ?', [before, howard])
     expect(lines).toHaveLength(20)
-    expect(new Set(lines.map(l => `${l.action} ${l.outcome}`))).toEqual(new Set(['patient.manage refused-invalid']))
+    expect(new Set(lines.map(l => `${l.action} ${l.outcome}`))).toEqual(new Set(['labs.record refused-invalid']))
 
     let nora = (await historyOf(patient, howard)).filter(g => g.actor.name === 'Nora Lindqvist')
-    expect(nora).toEqual([{ id: expect.any(String), day: clinicToday(), kind: 'refused', count: 20, actions: ['patient.manage'], actor: { name: 'Nora Lindqvist', role: 'nurse' }, firstAt: expect.any(String), lastAt: expect.any(String) }])
+    expect(nora).toEqual([{ id: expect.any(String), day: clinicToday(), kind: 'refused', count: 20, actions: ['labs.record'], actor: { name: 'Nora Lindqvist', role: 'nurse' }, firstAt: expect.any(String), lastAt: expect.any(String) }])
 
     const valid = await nurse.post(`/api/patients/${howard}/labs`, { kind: 'psa', takenOn: clinicToday(), value: 0.4 })
     expect(valid.status).toBe(201)

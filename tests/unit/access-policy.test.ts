@@ -16,7 +16,8 @@ const ACTIONS = [
   'appointment.respond',
   'appointment.schedule',
   'injection.record',
-  'patient.manage',
+  'regimen.set',
+  'labs.record',
   'circle.read',
   'circle.manage',
   'access-history.read',
@@ -35,27 +36,28 @@ type Row = [label: string, role: Role, relation: Relation, cells: string]
 
 /*
  * One column per action, in the order of ACTIONS; Y allowed, . refused:
- *   read  diary  respond  schedule  inject  manage  c.read  c.manage  history  triage  risk  contact
+ *   read  diary  respond  schedule  inject  regimen  labs  c.read  c.manage  history  triage  risk  contact
  */
 const MATRIX: Row[] = [
   // Journeys 1 and 2 (confirms, logs); 4 (invites his caregivers); README: his access history and contact.
-  ['patient, own record', 'patient', { kind: 'self' }, 'Y Y Y . . . Y Y Y . . Y'],
-  ['patient, another record', 'patient', { kind: 'none' }, '. . . . . . . . . . . .'],
+  ['patient, own record', 'patient', { kind: 'self' }, 'Y Y Y . . . . Y Y Y . . Y'],
+  ['patient, another record', 'patient', { kind: 'none' }, '. . . . . . . . . . . . .'],
   // Journey 4: "view only, or also log symptoms and confirm appointments".
-  ['caregiver, view only', 'caregiver', viewOnly, 'Y . . . . . . . . . . .'],
-  ['caregiver, view and log', 'caregiver', viewLog, 'Y Y . . . . . . . . . .'],
-  ['caregiver, view and appointments', 'caregiver', viewAppointments, 'Y . Y . . . . . . . . .'],
-  ['caregiver, every grant', 'caregiver', viewAll, 'Y Y Y . . . . . . . . .'],
-  ['caregiver, revoked or never granted', 'caregiver', revoked, '. . . . . . . . . . . .'],
-  // Journey 3 (triage) and "Staff also": roster, injections, appointments, labs; README: circle on his
-  // behalf (nurse, admin), risk profile (nurse, clinician), contact (staff).
-  ['nurse', 'nurse', { kind: 'staff' }, 'Y . . Y Y Y Y Y . Y Y Y'],
-  ['clinician', 'clinician', { kind: 'staff' }, 'Y . . Y Y Y Y . . Y Y Y'],
+  ['caregiver, view only', 'caregiver', viewOnly, 'Y . . . . . . . . . . . .'],
+  ['caregiver, view and log', 'caregiver', viewLog, 'Y Y . . . . . . . . . . .'],
+  ['caregiver, view and appointments', 'caregiver', viewAppointments, 'Y . Y . . . . . . . . . .'],
+  ['caregiver, every grant', 'caregiver', viewAll, 'Y Y Y . . . . . . . . . .'],
+  ['caregiver, revoked or never granted', 'caregiver', revoked, '. . . . . . . . . . . . .'],
+  // Journey 3 (triage) and "Staff also": roster, injections, appointments, labs; README: regimen and
+  // labs (nurse, clinician), circle on his behalf (nurse, admin), risk profile (nurse, clinician),
+  // contact (staff).
+  ['nurse', 'nurse', { kind: 'staff' }, 'Y . . Y Y Y Y Y Y . Y Y Y'],
+  ['clinician', 'clinician', { kind: 'staff' }, 'Y . . Y Y Y Y Y . . Y Y Y'],
   // README: injections, labs, regimen, triage and risk profile are nurse and clinician only.
-  ['admin', 'admin', { kind: 'staff' }, 'Y . . Y . Y Y Y . . . Y'],
-  ['patient posing as staff', 'patient', { kind: 'staff' }, '. . . . . . . . . . . .'],
-  ['caregiver posing as self', 'caregiver', { kind: 'self' }, '. . . . . . . . . . . .'],
-  ['nurse with no relation', 'nurse', { kind: 'none' }, '. . . . . . . . . . . .'],
+  ['admin', 'admin', { kind: 'staff' }, 'Y . . Y . . . Y Y . . . Y'],
+  ['patient posing as staff', 'patient', { kind: 'staff' }, '. . . . . . . . . . . . .'],
+  ['caregiver posing as self', 'caregiver', { kind: 'self' }, '. . . . . . . . . . . . .'],
+  ['nurse with no relation', 'nurse', { kind: 'none' }, '. . . . . . . . . . . . .'],
 ]
 
 describe('access policy', () => {

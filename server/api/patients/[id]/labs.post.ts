@@ -9,8 +9,7 @@ import { LabResult } from '../../../db/models'
  * ones also alert the nurses on duty.
  */
 export default defineEventHandler(async (event) => {
-  const staff = await requireRole(event, ['nurse', 'clinician'])
-  const { patient, user } = await authorizePatient(event, idParam(event), 'patient.manage', staff)
+  const { patient, user } = await authorizePatient(event, idParam(event), 'labs.record')
   const clock = await scheduleClock()
   const input = await readValidatedBody(event, parseWith(labResultSchema(clock.today)))
   const { settings, now } = clock

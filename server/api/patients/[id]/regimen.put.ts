@@ -3,7 +3,7 @@ import { PatientRegimen, Regimen } from '../../../db/models'
 
 /** Puts the patient on a regimen from a date (nurses and clinicians); the old one ends then. */
 export default defineEventHandler(async (event) => {
-  const { patient, user } = await authorizePatient(event, idParam(event), 'injection.record')
+  const { patient, user } = await authorizePatient(event, idParam(event), 'regimen.set')
   const input = await readValidatedBody(event, parseWith(setRegimenSchema))
   const regimen = await Regimen.findOne({ where: { id: input.regimenId, active: true } })
   if (!regimen) {
