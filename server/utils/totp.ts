@@ -8,8 +8,10 @@ import type { Transaction } from 'sequelize'
 import type { User as SessionUser } from '#auth-utils'
 import type { Role } from '#shared/types/roles'
 import { Patient, TotpRecoveryCode, User } from '../db/models'
+import { sessionUserOf } from './session-user'
 import { progressiveDelayS } from './sign-in-limit'
 import { tooManyAttempts } from './throttle'
+import { fieldError } from './validation'
 
 /*
  * The second factor (issue 11): TOTP (RFC 6238: SHA-1, 6 digits, 30 s steps, what every
@@ -98,7 +100,7 @@ export function tooManyCodes(event: H3Event, seconds: number) {
 }
 
 export function wrongCode() {
-  return createError({ statusCode: 401, message: 'errors.codeWrong', data: { fieldErrors: { code: ['validation.code.wrong'] } } })
+  return fieldError('code', 'validation.code.wrong', 401, 'errors.codeWrong')
 }
 
 // Recovery codes: no 0/O, 1/I/L, so they can be read off paper.
@@ -185,11 +187,6 @@ export async function enrolmentView(secret: string, email: string) {
 
 export function newTotpSecret(): string {
   return generateSecret({ length: 20 })
-}
-
-/** The session user as every route sees it. */
-export function sessionUserOf(user: User & { patient?: Patient | null }): SessionUser {
-  return { id: user.id, role: user.role, name: user.name, language: user.language, patientId: user.patient?.id ?? null }
 }
 
 /**

@@ -1,4 +1,5 @@
 import type { z, ZodError, ZodTypeAny } from 'zod'
+import { createError } from 'h3'
 
 /** Field path -> locale keys of what is wrong there. */
 export function fieldErrors(error: ZodError): Record<string, string[]> {
@@ -28,4 +29,18 @@ export function parseWith<T extends ZodTypeAny>(schema: T) {
     if (!result.success) throw new InvalidInput(fieldErrors(result.error))
     return result.data
   }
+}
+
+/**
+ * The error for one field the schema could not judge (a time in the past, a name taken):
+ * throw fieldError('email', 'validation.circle.alreadyMember', 409). The message defaults to
+ * 'errors.invalidInput' (400) or 'errors.alreadyExists' (409), as the forms expect.
+ */
+export function fieldError(field: string, keys: string | string[], statusCode = 400, message?: string) {
+  const list = Array.isArray(keys) ? keys : [keys]
+  return createError({
+    statusCode,
+    message: message ?? (statusCode === 409 ? 'errors.alreadyExists' : 'errors.invalidInput'),
+    data: { fieldErrors: { [field]: list } },
+  })
 }

@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
   await throttle(event, [{ scope: 'set-password:ip', key: `ip:${clientIp(event)}`, ...LIMITS.setPasswordPerIp }])
   const problems = await passwordProblemsForLink(token, password)
   if (problems.length) {
-    throw createError({ statusCode: 400, message: problems[0], data: { fieldErrors: { password: problems } } })
+    throw fieldError('password', problems, 400, problems[0])
   }
   const sequelize = await useDb()
   const passwordHash = await hashPassword(password)

@@ -9,7 +9,7 @@ export default defineEventHandler(async (event) => {
   const sequelize = await useDb()
   const regimen = await sequelize.transaction(async (transaction) => {
     const clash = await Regimen.findOne({ where: { [Op.and]: [where(fn('lower', col('name')), input.name.toLowerCase())] }, transaction })
-    if (clash) throw createError({ statusCode: 409, message: 'errors.alreadyExists', data: { fieldErrors: { name: ['validation.alreadyExists'] } } })
+    if (clash) throw fieldError('name', 'validation.alreadyExists', 409)
     const created = await Regimen.create({ name: input.name, intervalDays: input.intervalDays }, { transaction })
     await recordAudit(event, { actor, patientId: null, action: 'regimen.create', resource: event.path }, transaction)
     return created

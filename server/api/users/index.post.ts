@@ -40,7 +40,7 @@ export default defineEventHandler(async (event) => {
   catch (error) {
     if (error instanceof UniqueConstraintError) {
       const field = error.errors[0]?.path === 'clinic_number' ? 'patient.clinicNumber' : 'email'
-      throw createError({ statusCode: 409, message: 'errors.alreadyExists', data: { fieldErrors: { [field]: ['validation.alreadyExists'] } } })
+      throw fieldError(field, 'validation.alreadyExists', 409)
     }
     throw error
   }

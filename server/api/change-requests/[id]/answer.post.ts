@@ -43,7 +43,7 @@ export default defineEventHandler(async (event) => {
   const tz = clock.settings.timeZone
   const newStart = input.decision === 'move' ? zonedDateTimeToUtc(input.date!, input.time!, tz) : null
   if (newStart && newStart <= clock.now) {
-    throw createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { time: ['validation.schedule.pastTime'] } } })
+    throw fieldError('time', 'validation.schedule.pastTime')
   }
   const sequelize = await useDb()
   const appointment = await sequelize.transaction(async (transaction) => {

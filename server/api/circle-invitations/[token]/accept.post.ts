@@ -15,7 +15,7 @@ export default defineEventHandler(async (event) => {
   await useDb()
   const invited = input.password === undefined ? null : await findOpenInvitation(raw)
   const problems = invited ? await passwordProblemsFor(input.password!, { email: invited.email, name: input.name ?? invited.name }) : []
-  if (problems.length) throw createError({ statusCode: 400, message: problems[0], data: { fieldErrors: { password: problems } } })
+  if (problems.length) throw fieldError('password', problems, 400, problems[0])
   const passwordHash = input.password === undefined ? null : await hashPassword(input.password)
   // Who is signed in, from a live session only: an ended or idle cookie is nobody here.
   const signedInId = (await getUserSession(event)).user
@@ -36,7 +36,7 @@ export default defineEventHandler(async (event) => {
     }
     if (kind === 'new') {
       if (!passwordHash) {
-        throw createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { password: ['validation.password.tooShort'] } } })
+        throw fieldError('password', 'validation.password.tooShort')
       }
       const name = input.name ?? invitation.name
       account = account
@@ -59,8 +59,7 @@ export default defineEventHandler(async (event) => {
   })
 
   if (accepted.newAccount) {
-    const { account } = accepted
-    await startSession(event, { id: account.id, role: account.role, name: account.name, language: account.language, patientId: null })
+    await startSession(event, sessionUserOf(accepted.account))
   }
   return { patientId: Number(accepted.patientId), newAccount: accepted.newAccount }
 })

@@ -20,7 +20,7 @@ export default defineEventHandler(async (event) => {
   const tz = clock.settings.timeZone
   const startsAt = zonedDateTimeToUtc(input.date, input.time, tz)
   if (startsAt <= clock.now) {
-    throw createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { time: ['validation.schedule.pastTime'] } } })
+    throw fieldError('time', 'validation.schedule.pastTime')
   }
   const sequelize = await useDb()
   const appointment = await sequelize.transaction(async (transaction) => {

@@ -7,9 +7,6 @@ import { Appointment, Injection, PatientRegimen, Regimen, User } from '../../../
 /** Minutes a clock may run ahead before a time counts as "in the future". */
 const CLOCK_TOLERANCE_MS = 5 * 60_000
 
-const fieldError = (field: string, key: string) =>
-  createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { [field]: [`validation.schedule.${key}`] } } })
-
 /**
  * Records one injection given (nurses and clinicians). Refuses a date or time in the
  * future, an unknown regimen and a second injection on the same day. The dose given
@@ -20,14 +17,14 @@ export default defineEventHandler(async (event) => {
   const clock = await scheduleClock()
   const input = await readValidatedBody(event, parseWith(recordInjectionSchema(clock.today)))
   const givenAt = zonedDateTimeToUtc(input.date, input.time, clock.settings.timeZone)
-  if (givenAt.getTime() > clock.now.getTime() + CLOCK_TOLERANCE_MS) throw fieldError('time', 'futureTime')
+  if (givenAt.getTime() > clock.now.getTime() + CLOCK_TOLERANCE_MS) throw fieldError('time', 'validation.schedule.futureTime')
   const regimen = await Regimen.findOne({ where: { id: input.regimenId, active: true } })
-  if (!regimen) throw fieldError('regimenId', 'regimenRequired')
+  if (!regimen) throw fieldError('regimenId', 'validation.schedule.regimenRequired')
 
   const sequelize = await useDb()
   const injection = await sequelize.transaction(async (transaction) => {
     const sameDay = await Injection.findOne({ where: { patientId: patient.id, givenOn: input.date }, transaction })
-    if (sameDay) throw fieldError('date', 'alreadyRecorded')
+    if (sameDay) throw fieldError('date', 'validation.schedule.alreadyRecorded')
     const latest = await Injection.findOne({ where: { patientId: patient.id }, order: [['givenAt', 'DESC']], transaction })
     const created = await Injection.create({
       patientId: patient.id,

@@ -73,7 +73,7 @@ export default defineEventHandler(async (event) => {
         break
       }
       case 'close':
-        if (!item.disposition) throw createError({ statusCode: 400, message: 'errors.dispositionRequired', data: { fieldErrors: { disposition: ['validation.triage.disposition'] } } })
+        if (!item.disposition) throw fieldError('disposition', 'validation.triage.disposition', 400, 'errors.dispositionRequired')
         await change({ status: 'closed', closedAt: now }, { disposition: { [Op.ne]: null } })
         await log('closed', { disposition: item.disposition })
         break

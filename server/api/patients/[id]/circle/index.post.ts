@@ -25,11 +25,11 @@ export default defineEventHandler(async (event) => {
     ], transaction)
     const account = await User.findOne({ where: { email: input.email }, transaction })
     if (account?.id === patient.userId) {
-      throw createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { email: ['validation.circle.notYourself'] } } })
+      throw fieldError('email', 'validation.circle.notYourself')
     }
     const member = account && await CareGrant.findOne({ where: { patientId: patient.id, caregiverUserId: account.id, revokedAt: { [Op.is]: null } }, transaction })
     if (member) {
-      throw createError({ statusCode: 409, message: 'errors.alreadyExists', data: { fieldErrors: { email: ['validation.circle.alreadyMember'] } } })
+      throw fieldError('email', 'validation.circle.alreadyMember', 409)
     }
     const now = new Date()
     await CircleInvitation.update({ status: 'cancelled', closedAt: now }, { where: { patientId: patient.id, email: input.email, status: 'pending' }, transaction })
