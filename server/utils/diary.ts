@@ -9,19 +9,18 @@ import { hotFlushScoreFromDiary } from '#shared/clinical/scores'
 import { emptyDiaryEntry, withDiaryDefaults } from '#shared/schemas/diary'
 import type { DiaryEntryInput, DiarySubmission } from '#shared/schemas/diary'
 import type { TriageEventType } from '#shared/schemas/triage'
-import type { DiaryEntryView, EnteredBy } from '#shared/types/diary'
+import type { Attribution } from '#shared/types/attribution'
+import type { DiaryEntryView } from '#shared/types/diary'
 import { DiaryEntry, Patient, TriageEvent, TriageItem, User } from '../db/models'
-
-export function enteredByOf(user: Pick<User, 'id' | 'name' | 'role'>, patient: Pick<Patient, 'userId'>): EnteredBy {
-  const relation = user.id === patient.userId ? 'self' : user.role === 'caregiver' ? 'caregiver' : 'staff'
-  return { name: user.name, relation }
-}
+import { attributionOf } from './attribution'
 
 /**
- * An entry as the API returns it. Pass the entry's queue item (or null when it opened
- * none) to include the care team's review; leave it out where the review is not wanted.
+ * An entry as the API returns it. enteredBy is attributionOf(the entry's author,
+ * patient.userId); the diary shows his name and relation, not his role. Pass the entry's
+ * queue item (or null when it opened none) to include the care team's review; leave it out
+ * where the review is not wanted.
  */
-export function diaryView(entry: DiaryEntry, enteredBy: EnteredBy, item?: Pick<TriageItem, 'status' | 'disposition' | 'closedAt'> | null): DiaryEntryView {
+export function diaryView(entry: DiaryEntry, enteredBy: Attribution, item?: Pick<TriageItem, 'status' | 'disposition' | 'closedAt'> | null): DiaryEntryView {
   const view: DiaryEntryView = {
     id: entry.id,
     patientId: entry.patientId,
@@ -36,7 +35,7 @@ export function diaryView(entry: DiaryEntry, enteredBy: EnteredBy, item?: Pick<T
     hotFlushScore: entry.hotFlushScore,
     worstPain: entry.worstPain,
     answers: entry.answers,
-    enteredBy,
+    enteredBy: { name: enteredBy.name, relation: enteredBy.relation },
   }
   if (item !== undefined) view.review = item ? { status: item.status, disposition: item.disposition, closedAt: item.closedAt?.toISOString() ?? null } : null
   return view
@@ -243,7 +242,7 @@ export async function findDiaryEntryView(entryId: number, patient: Patient): Pro
     ],
   })
   if (!entry) return null
-  return diaryView(entry, enteredByOf(entry.enteredBy!, patient), (entry as DiaryEntry & { triageItem?: TriageItem | null }).triageItem ?? null)
+  return diaryView(entry, attributionOf(entry.enteredBy!, patient.userId), (entry as DiaryEntry & { triageItem?: TriageItem | null }).triageItem ?? null)
 }
 
 /** The answer of the diary routes: the entry as stored now. */

@@ -65,7 +65,7 @@ export async function triageDetail(item: TriageItem, now: Date): Promise<TriageD
       at: e.at.toISOString(),
       actor: e.actor ? { id: e.actor.id, name: e.actor.name, role: e.actor.role } : null,
     })),
-    entry: entry ? diaryView(entry, enteredByOf(entry.enteredBy!, patient), item) : null,
+    entry: entry ? diaryView(entry, attributionOf(entry.enteredBy!, patient.userId), item) : null,
     noteRead: events.some(e => e.type === 'note-read'),
     riskProfile: riskProfileOf(patient.riskProfile),
     contact: contactOf(patient),

@@ -28,7 +28,7 @@ export default defineEventHandler(async (event) => {
     total: count,
     entries: rows.map((entry) => {
       const item = (entry as DiaryEntry & { triageItem?: TriageItem | null }).triageItem
-      return diaryView(entry, enteredByOf(entry.enteredBy!, patient), item ?? null)
+      return diaryView(entry, attributionOf(entry.enteredBy!, patient.userId), item ?? null)
     }),
   }
 })
