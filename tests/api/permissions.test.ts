@@ -193,6 +193,18 @@ describe('the permission table', () => {
   }
 })
 
+describe('what the circle page may offer', () => {
+  // From the circle.manage row above, for the people who may read the circle at all.
+  const MAY_MANAGE: Partial<Record<Actor, boolean>> = { self: true, nurse: true, clinician: false, admin: true }
+  for (const [actor, mayManage] of Object.entries(MAY_MANAGE) as [Actor, boolean][]) {
+    it(`GET /api/patients/:id/circle as ${actor} says canManage ${mayManage}`, async () => {
+      const reply = await people[actor].get(`/api/patients/${ids['LPU-1012']}/circle`)
+      expect(reply.status).toBe(200)
+      expect(reply.body.canManage).toBe(mayManage)
+    })
+  }
+})
+
 describe('the table covers every patient route', () => {
   const apiDir = new URL('../../server/api/', import.meta.url).pathname
   const files = (dir: string): string[] => readdirSync(dir).flatMap((name) => {
