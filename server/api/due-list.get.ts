@@ -1,8 +1,6 @@
-import { Op } from 'sequelize'
 import { dueGroup } from '#shared/scheduling/planning'
-import { OPEN_APPOINTMENT_STATUSES } from '#shared/scheduling/types'
 import type { DueListRow } from '#shared/types/schedule'
-import { Appointment, Patient, User } from '../db/models'
+import { Patient, User } from '../db/models'
 
 /**
  * The due list (staff): every active patient who is overdue, late, due this week, due in
@@ -15,16 +13,10 @@ export default defineEventHandler(async (event) => {
   const clock = await scheduleClock()
   const tz = clock.settings.timeZone
   const patients = await Patient.findAll({ include: [{ model: User, as: 'user', attributes: ['name', 'active'], where: { active: true } }] })
-  const [standings, appointments] = await Promise.all([
+  const [standings, nextOf] = await Promise.all([
     computeSchedules(patients.map(p => p.id), clock),
-    Appointment.findAll({
-      where: { status: { [Op.in]: [...OPEN_APPOINTMENT_STATUSES] }, startsAt: { [Op.gte]: startOfClinicDay(clock.today, tz) } },
-      attributes: ['id', 'patientId', 'startsAt', 'status'],
-      order: [['startsAt', 'DESC'], ['id', 'DESC']],
-    }),
+    nextAppointmentsOf(clock),
   ])
-  // Later rows overwrite earlier ones: the next appointment.
-  const nextOf = new Map(appointments.map(a => [a.patientId, a]))
 
   const rows: DueListRow[] = []
   let later = 0

@@ -26,7 +26,7 @@ export default defineEventHandler(async (event) => {
   const appointment = await sequelize.transaction(async (transaction) => {
     const patientUser = await User.findByPk(patient.userId, { transaction })
     const replaced = await Appointment.findAll({
-      where: { patientId: patient.id, status: { [Op.in]: [...OPEN_APPOINTMENT_STATUSES] }, startsAt: { [Op.gte]: startOfClinicDay(clock.today, tz) } },
+      where: { patientId: patient.id, ...openFromToday(clock) },
       transaction,
     })
     if (input.replaces !== undefined) {
