@@ -74,7 +74,7 @@ export function can(role: Role, relation: Relation, action: PatientAction): bool
 export async function requireActiveUser(event: H3Event): Promise<SessionUser> {
   const session = await requireUserSession(event)
   const user = await requireLiveSession(event, session)
-  return { id: user.id, role: user.role, name: user.name, language: user.language, patientId: user.patient?.id ?? null }
+  return sessionUserOf(user)
 }
 
 export async function requireRole(event: H3Event, roles: readonly Role[]): Promise<SessionUser> {

@@ -6,9 +6,7 @@ export default defineEventHandler(async (event) => {
   const { patient, user } = await authorizePatient(event, idParam(event), 'regimen.set')
   const input = await readValidatedBody(event, parseWith(setRegimenSchema))
   const regimen = await Regimen.findOne({ where: { id: input.regimenId, active: true } })
-  if (!regimen) {
-    throw createError({ statusCode: 400, message: 'errors.invalidInput', data: { fieldErrors: { regimenId: ['validation.schedule.regimenRequired'] } } })
-  }
+  if (!regimen) throw fieldError('regimenId', 'validation.schedule.regimenRequired')
   const sequelize = await useDb()
   await sequelize.transaction(async (transaction) => {
     const plan = await currentRegimenOf(patient.id, transaction)
