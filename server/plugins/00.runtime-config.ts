@@ -24,7 +24,12 @@ function copy<T>(value: T): T {
 }
 
 export default defineNitroPlugin((nitroApp) => {
-  const settled = useRuntimeConfig()
+  const settled = copy(useRuntimeConfig())
+  // The session cookie is Secure exactly when NUXT_PUBLIC_URL is https, decided here once, so
+  // one build serves an https site and a plain-http install on a local network address (a
+  // browser drops a Secure cookie sent over http: every sign-in would seem to fail).
+  // nuxt-auth-utils reads the cookie options from the request's copy made below.
+  Object.assign(settled.session.cookie, { secure: new URL(settled.publicUrl).protocol === 'https:' })
   const handler = nitroApp.h3App.handler
   nitroApp.h3App.handler = (event) => {
     const context = event.context as { nitro?: { errors: unknown[], runtimeConfig?: unknown } }
