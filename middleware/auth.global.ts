@@ -23,5 +23,9 @@ export default defineNuxtRouteMiddleware((to) => {
     return navigateTo({ path: '/sign-in', query: { ...(to.fullPath !== '/' ? { next: to.fullPath } : {}), ...ended } })
   }
   const roles = to.meta.roles
-  if (roles && !roles.includes(user.value.role)) return navigateTo(HOME_BY_ROLE[user.value.role])
+  if (roles && !roles.includes(user.value.role)) {
+    const home = HOME_BY_ROLE[user.value.role]
+    // Today says why he was brought there and what he can do instead.
+    return navigateTo(home === '/today' ? { path: home, query: { notAllowed: to.path } } : home)
+  }
 })
