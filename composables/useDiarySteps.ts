@@ -1,3 +1,5 @@
+import { diaryEntrySchema } from '#shared/schemas/diary'
+
 /**
  * The weekly diary's steps in order, with the top-level answers each one asks. The review
  * step asks nothing; it shows every answer with a way back to its step. The areas added in
@@ -42,4 +44,46 @@ export function useDiarySentTime(sentAt: () => string | null) {
     const iso = sentAt()
     return iso ? d(new Date(iso), { key: 'time', timeZone: clinic.value.timeZone }) : ''
   })
+}
+
+/** Form paths as the step components ask for them: "urinary.ipss.items[2]". */
+function pathOf(path: readonly PropertyKey[]): string {
+  return path.reduce<string>((text, part) => typeof part === 'number' ? `${text}[${part}]` : text ? `${text}.${String(part)}` : String(part), '')
+}
+
+/**
+ * The diary's answers checked where they live (the draft in the store) against the server's
+ * own schema; the messages are locale keys by form path, shown at the field. There is no
+ * second copy of the answers: what is checked and sent is a snapshot of the draft.
+ */
+export function useDiaryCheck() {
+  const { t, te } = useI18n()
+  const errors = ref<Record<string, string>>({})
+  const errorText = (path: string) => {
+    const key = errors.value[path]
+    return key ? (te(key) ? t(key) : key) : undefined
+  }
+  /** Checks the whole draft; keeps the messages of the steps in `visible`, clears the rest. */
+  function check(draft: object, visible: (step: number) => boolean) {
+    const snapshot = structuredClone(toRaw(draft)) as Record<string, unknown> & { urinary: Record<string, unknown>, sugar: Record<string, unknown> }
+    // An optional answer he took out (the note, IPSS, a reading) is not sent at all.
+    if (snapshot.note === null) delete snapshot.note
+    if (snapshot.urinary.ipss == null) delete snapshot.urinary.ipss
+    if (snapshot.sugar.glucose == null) delete snapshot.sugar.glucose
+    const result = diaryEntrySchema.safeParse(snapshot)
+    const found: Record<string, string> = {}
+    if (!result.success) {
+      for (const issue of result.error.issues) {
+        const path = pathOf(issue.path)
+        if (!(path in found) && visible(diaryStepOfPath(path))) found[path] = issue.message
+      }
+    }
+    errors.value = found
+    return result.success ? { valid: true as const, values: result.data, paths: [] } : { valid: false as const, values: null, paths: result.error.issues.map(issue => pathOf(issue.path)) }
+  }
+  function setServerErrors(fields: Record<string, string>) {
+    errors.value = { ...errors.value, ...fields }
+  }
+  const translated = computed(() => Object.fromEntries(Object.keys(errors.value).map(path => [path, errorText(path)])))
+  return { errors, errorText, translated, check, setServerErrors }
 }
