@@ -1,6 +1,7 @@
 import { stringify } from 'csv-stringify/sync'
 import { AuditEvent } from '../../db/models'
 import { auditQuerySchema } from '#shared/schemas/circle'
+import { localDate } from '#shared/clinical/schedule'
 
 const COLUMNS = ['id', 'at', 'actor_user_id', 'actor_name', 'actor_email', 'actor_role', 'patient_id', 'patient_clinic_number', 'patient_name', 'action', 'resource', 'outcome', 'ip']
 
@@ -22,6 +23,7 @@ export default defineEventHandler(async (event) => {
   }), { header: true, columns: COLUMNS })
   await recordAudit(event, { actor: admin, patientId: null, action: 'audit.export', resource: `${event.method} ${event.path}` })
   setResponseHeader(event, 'content-type', 'text/csv; charset=utf-8')
-  setResponseHeader(event, 'content-disposition', `attachment; filename="tidewell-audit-trail-${new Date().toISOString().slice(0, 10)}.csv"`)
+  // Named with the clinic's date, the day its staff see on every page, not the UTC one.
+  setResponseHeader(event, 'content-disposition', `attachment; filename="tidewell-audit-trail-${localDate(requestNow(event), timeZone)}.csv"`)
   return csv
 })
