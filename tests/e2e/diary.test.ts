@@ -231,6 +231,8 @@ describe('the weekly diary', () => {
         continue
       }
       if (step === 3) await choose(page, 'What was your worst pain this past week?', '4')
+      // Later steps load their code when first reached: wait for the questions before looking for the button.
+      await page.locator('#diary-form :is(fieldset, textarea)').first().waitFor()
       const leaveIpss = page.getByRole('button', { name: 'Leave these questions for now' })
       if (step === 4 && await leaveIpss.count()) await leaveIpss.click()
       await next(page)
@@ -318,6 +320,8 @@ describe('the weekly diary', () => {
     await noneOfThese(page)
     for (let step = 2; step <= 6; step++) {
       await page.getByText(new RegExp(`^Step ${step} of ${STEPS}:`)).waitFor()
+      // Later steps load their code when first reached: wait for the questions before looking for the button.
+      await page.locator('#diary-form :is(fieldset, textarea)').first().waitFor()
       const leaveIpss = page.getByRole('button', { name: 'Leave these questions for now' })
       if (step === 4 && await leaveIpss.count()) await leaveIpss.click()
       await next(page)
@@ -355,6 +359,8 @@ describe('the weekly diary', () => {
     await noneOfThese(page)
     for (let step = 2; step <= 10; step++) {
       await page.getByText(new RegExp(`^Step ${step} of ${STEPS}:`)).waitFor()
+      // Later steps load their code when first reached: wait for the questions before looking for the button.
+      await page.locator('#diary-form :is(fieldset, textarea)').first().waitFor()
       const leaveIpss = page.getByRole('button', { name: 'Leave these questions for now' })
       if (step === 4 && await leaveIpss.count()) await leaveIpss.click()
       // Nothing wider than the screen.
