@@ -63,14 +63,14 @@ describe('a lean client', () => {
       const section = html.slice(html.indexOf(`aria-labelledby="${id}-title"`))
       const svg = section.slice(section.indexOf('<svg'), section.indexOf('</svg>'))
       expect(svg, `${id} is drawn on the server`).toContain('role="img"')
-      expect(svg.match(/<circle/g)?.length, `${id} has a dot per entry`).toBe(2)
+      expect(svg.match(/<line[^>]*data-dot/g)?.length, `${id} has a dot per entry`).toBe(2)
       expect(svg).toContain('<polyline')
     }
     await open(history, '/diary')
     for (const id of ['diary-chart-hot-flushes', 'diary-chart-pain']) {
       const chart = history.locator(`section[aria-labelledby="${id}-title"] svg[role="img"]`)
       await expect(chart.getAttribute('aria-label')).resolves.toMatch(/\S/)
-      await expect(chart.locator('circle').count()).resolves.toBe(2)
+      await expect(chart.locator('line[data-dot]').count()).resolves.toBe(2)
       // The drawing has room: the browser gives it a real box.
       const box = await chart.boundingBox()
       expect(box!.width).toBeGreaterThan(100)
