@@ -42,17 +42,17 @@ export default defineNuxtConfig({
     // /api/ready answers 503 below this much free disk or with an e-mail unsent this long.
     readyMinFreeMb: 200,
     readyMaxOutboxAgeMin: 15,
-    // The write line (server/utils/write-queue.ts): how many writes may wait, and how long.
+    // The write line (server/utils/core/write-queue.ts): how many writes may wait, and how long.
     writeQueueMax: 200,
     writeQueueWaitMs: 10_000,
     // How many reverse proxies stand in front (0: none, X-Forwarded-For is ignored); see
-    // clientIp() in server/utils/throttle.ts.
+    // clientIp() in server/utils/auth/throttle.ts.
     trustProxy: 0,
     publicUrl: 'http://localhost:3000',
     seedDemo: false,
     seedDemoActivity: false,
     allowClockOverride: false,
-    // Encrypts second-factor secrets at rest (server/utils/totp.ts); the session password when empty.
+    // Encrypts second-factor secrets at rest (server/utils/auth/totp.ts); the session password when empty.
     totpKey: '',
     session: {
       name: 'tidewell-session',
@@ -67,7 +67,7 @@ export default defineNuxtConfig({
     '/api/**': { headers: { 'cache-control': 'no-store' } },
   },
   // nuxt-security 2.5.1 (2.6 needs Node 24): headers only. Its other parts stay off because
-  // Tidewell has its own: throttling kept in the database (server/utils/throttle.ts), the
+  // Tidewell has its own: throttling kept in the database (server/utils/auth/throttle.ts), the
   // request guard's Origin check and 64 kB body limit (server/middleware/01.request-guard.ts),
   // zod validation of every input. Its CORS handler would answer any preflight with 204 and
   // add Access-Control-Allow-Origin: * to every same-origin response; with it off no other
@@ -95,7 +95,7 @@ export default defineNuxtConfig({
         'form-action': ["'self'"],
         'frame-ancestors': ["'none'"],
         'frame-src': ["'none'"],
-        // data: for the second-factor QR code, an SVG made on the server (server/utils/totp.ts).
+        // data: for the second-factor QR code, an SVG made on the server (server/utils/auth/totp.ts).
         'img-src': ["'self'", 'data:'],
         'manifest-src': ["'self'"],
         'media-src': ["'self'"],
@@ -143,6 +143,9 @@ export default defineNuxtConfig({
     // and gzip-compressed on the way out (server/plugins/07.compression.ts).
     compressPublicAssets: { gzip: true, brotli: true },
     experimental: { tasks: true },
+    // server/utils is grouped by feature (auth/, schedule/, triage/, …); every file in those
+    // folders is auto-imported like a top-level one.
+    imports: { dirs: ['./server/utils/**'] },
     scheduledTasks: {
       '*/5 * * * *': ['outbox:send', 'triage:escalate'],
       '0 13 * * *': ['triage:overdue'],

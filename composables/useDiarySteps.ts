@@ -1,4 +1,4 @@
-import { diaryEntrySchema } from '#shared/schemas/diary'
+import { diaryEntrySchema } from '#shared/diary/schemas'
 
 /**
  * The weekly diary's steps in order, with the top-level answers each one asks. The review

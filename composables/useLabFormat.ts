@@ -1,4 +1,4 @@
-import type { LabKind } from '#shared/clinical/lab-triage'
+import type { LabKind } from '#shared/labs/lab-triage'
 
 /** Numbers and names for lab results, in the reader's language. */
 export function useLabFormat() {

@@ -1,5 +1,5 @@
-import type { ScheduleState, SiteCode } from '#shared/clinical/schedule'
-import type { AppointmentStatus, DueGroup } from '#shared/scheduling/types'
+import type { ScheduleState, SiteCode } from '#shared/schedule/rules'
+import type { AppointmentStatus, DueGroup } from '#shared/schedule/statuses'
 
 const camel = (code: string) => code.replace(/-(\w)/g, (_, letter: string) => letter.toUpperCase())
 

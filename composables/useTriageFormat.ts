@@ -1,4 +1,4 @@
-import type { Disposition, TriageItemStatus, TriageSource } from '#shared/schemas/triage'
+import type { Disposition, TriageItemStatus, TriageSource } from '#shared/triage/schemas'
 
 const MINUTE = 60_000
 

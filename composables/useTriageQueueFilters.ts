@@ -1,6 +1,6 @@
 import type { LocationQuery } from 'vue-router'
-import { TRIAGE_STATUSES } from '#shared/schemas/triage'
-import type { TriageItemStatus } from '#shared/schemas/triage'
+import { TRIAGE_STATUSES } from '#shared/triage/schemas'
+import type { TriageItemStatus } from '#shared/triage/schemas'
 
 export interface TriageQueueFilters {
   level: '' | 'emergency' | 'urgent' | 'routine'

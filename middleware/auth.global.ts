@@ -1,5 +1,5 @@
-import type { Role } from '#shared/types/roles'
-import { HOME_BY_ROLE } from '#shared/types/roles'
+import type { Role } from '#shared/auth/roles'
+import { HOME_BY_ROLE } from '#shared/auth/roles'
 
 declare module '#app' {
   interface PageMeta {

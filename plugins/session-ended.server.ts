@@ -1,6 +1,6 @@
 /*
  * A server render whose session cookie the server refused (signed out elsewhere, password
- * changed, idle: server/utils/sessions.ts, which also clears the cookie on this page's
+ * changed, idle: server/utils/auth/sessions.ts, which also clears the cookie on this page's
  * response) remembers why, so the guard (middleware/auth.global.ts) can send him to the
  * sign-in page with the reason. Asking again costs no query: the page request's check is
  * shared. A half-signed-in cookie (second factor still to come) is not refused.

@@ -1,9 +1,9 @@
 import { defineStore } from 'pinia'
-import { RIGHT_NOW_ITEMS } from '#shared/clinical/triage'
-import type { RightNowItem } from '#shared/clinical/triage'
-import type { GlucoseUnit } from '#shared/clinical/labs'
-import { emptyDiaryEntry, withDiaryDefaults } from '#shared/schemas/diary'
-import type { DiaryEntryInput } from '#shared/schemas/diary'
+import { RIGHT_NOW_ITEMS } from '#shared/triage/rules'
+import type { RightNowItem } from '#shared/triage/rules'
+import type { GlucoseUnit } from '#shared/labs/calculations'
+import { emptyDiaryEntry, withDiaryDefaults } from '#shared/diary/schemas'
+import type { DiaryEntryInput } from '#shared/diary/schemas'
 
 /** The IPSS part of a draft: an item stays null until he picks an answer. */
 export interface IpssDraft {

@@ -1,5 +1,5 @@
-import { dueGroup } from '#shared/scheduling/planning'
-import type { DueListRow } from '#shared/types/schedule'
+import { dueGroup } from '#shared/schedule/planning'
+import type { DueListRow } from '#shared/schedule/views'
 import { Patient, User } from '../db/models'
 
 /**

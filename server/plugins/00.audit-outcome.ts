@@ -3,7 +3,7 @@ import { createError, setResponseHeader, setResponseStatus } from 'h3'
 
 /*
  * The audit line of a granted access is written when the request has finished, with what
- * happened (server/utils/audit.ts, DEVELOPERS.md "Audit outcomes"): authorizePatient only
+ * happened (server/utils/audit/audit.ts, DEVELOPERS.md "Audit outcomes"): authorizePatient only
  * keeps it in event.context (deferAudit).
  * - A handler that returns: the beforeResponse hook writes it with the response status,
  *   before the answer goes out. If that write is refused (the write line is full), a read

@@ -1,6 +1,6 @@
 import type { H3Event } from 'h3'
 import { setResponseHeader } from 'h3'
-import type { QueryCounter } from '../utils/query-count'
+import type { QueryCounter } from '../utils/core/query-count'
 
 /**
  * Tests only (NUXT_COUNT_QUERIES=1): every response carries the number of SQL statements

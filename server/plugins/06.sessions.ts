@@ -1,7 +1,7 @@
 import type { H3Event } from 'h3'
 
 /*
- * nuxt-auth-utils' own routes follow the session rows too (server/utils/sessions.ts):
+ * nuxt-auth-utils' own routes follow the session rows too (server/utils/auth/sessions.ts):
  * GET /api/_auth/session, what the client reads to know who is signed in, answers 401 for
  * an ended or idle session, and DELETE /api/_auth/session (useUserSession().clear())
  * ends the row before the cookie goes, so clearing on the client alone is a real sign-out.

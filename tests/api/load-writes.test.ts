@@ -8,7 +8,7 @@ import { sql } from '../support/sqlite'
 
 /*
  * The write path under load (issue 10): every write waits its turn in one bounded line
- * (server/utils/write-queue.ts) instead of in SQLite's busy handler. Nothing here times
+ * (server/utils/core/write-queue.ts) instead of in SQLite's busy handler. Nothing here times
  * anything; the bench measures speed.
  */
 
@@ -68,7 +68,7 @@ describe('many writers at once', () => {
     const before = (await sql<{ n: number }>(app.dbPath, 'SELECT COUNT(*) AS n FROM sign_in_failures'))[0]!.n
     const replies = await Promise.all(Array.from({ length: 20 }, () => new Client(app.url).post('/api/auth/sign-in', { email, password: 'not the password' })))
     const statuses = replies.map(r => r.status)
-    // Five failures lock an account (server/utils/sign-in-limit.ts MAX_FAILURES, common practice).
+    // Five failures lock an account (server/utils/auth/sign-in-limit.ts MAX_FAILURES, common practice).
     expect(statuses.filter(s => s === 401)).toHaveLength(5)
     expect(statuses.filter(s => s === 429)).toHaveLength(15)
     const after = (await sql<{ n: number }>(app.dbPath, 'SELECT COUNT(*) AS n FROM sign_in_failures'))[0]!.n

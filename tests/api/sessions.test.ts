@@ -8,7 +8,7 @@ import { sql } from '../support/sqlite'
 
 /*
  * Revocable sessions (issue 11): every signed-in request needs its user_sessions row to be
- * live (server/utils/sessions.ts). A copied cookie stops working at sign-out, sign-out
+ * live (server/utils/auth/sessions.ts). A copied cookie stops working at sign-out, sign-out
  * everywhere and a password reset; an idle session ends; one reset link spends the others.
  * The idle tests judge a request as of a later time with the clock header, which the server
  * honours only with NUXT_ALLOW_CLOCK_OVERRIDE (tests/support/app.ts sets it).

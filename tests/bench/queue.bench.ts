@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { emptyDiaryEntry } from '../../shared/schemas/diary'
+import { emptyDiaryEntry } from '#shared/diary/schemas'
 import type { RunningApp } from '../support/app'
 import { startApp } from '../support/app'
 import { Client } from '../support/client'

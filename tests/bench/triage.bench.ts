@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { evaluateTriage } from '../../shared/clinical/triage'
-import type { DiaryEntryInput } from '../../shared/schemas/diary'
+import { evaluateTriage } from '#shared/triage/rules'
+import type { DiaryEntryInput } from '#shared/diary/schemas'
 import type { RunningApp } from '../support/app'
 import { startApp } from '../support/app'
 import { Client } from '../support/client'

@@ -113,7 +113,7 @@ describe('the weekly diary', () => {
     await page.getByLabel('Anything else the clinic should know?').fill('Sleeping a little better this week.')
     await page.getByText('35 of 2,000 characters').waitFor()
     // The note says when it is read: the clinic's routine response time when /api/clinic gives
-    // it (default 3 working days, server/utils/settings.ts), otherwise "a few working days".
+    // it (default 3 working days, server/utils/core/settings.ts), otherwise "a few working days".
     const clinic = await (await fetch(new URL('/api/clinic', inject('appUrl')))).json() as { routineResponseWorkingDays?: number }
     await page.getByText(clinic.routineResponseWorkingDays === undefined
       ? 'A nurse reads every note within a few working days.'

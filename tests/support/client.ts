@@ -31,7 +31,7 @@ function keepStepOnFile(key: string, step: number) {
 
 /**
  * A code from `secret` for a time step not yet used by this user on this server: the server
- * accepts each step once and the steps before, at and after now (server/utils/totp.ts), so
+ * accepts each step once and the steps before, at and after now (server/utils/auth/totp.ts), so
  * three sign-ins of one user per 30 s go straight through and a fourth waits for the next step.
  */
 export async function totpCode(baseUrl: string, email: string, secret = DEMO_TOTP_SECRET): Promise<string> {

@@ -1,13 +1,13 @@
 import { describe, expect, it } from 'vitest'
-import type { PatientAction, Relation } from '../../server/utils/access'
-import { can, PATIENT_ACTIONS } from '../../server/utils/access'
-import type { Role } from '../../shared/types/roles'
+import type { PatientAction, Relation } from '../../server/utils/auth/access'
+import { can, PATIENT_ACTIONS } from '../../server/utils/auth/access'
+import type { Role } from '#shared/auth/roles'
 
 /*
  * The access policy written out cell by cell, from who may do what in
  * ../shared/PRODUCT.md (the four journeys and "Staff also ...") and the route table in
  * README.md (API, "who" column) where PRODUCT.md does not split the staff roles. Nothing
- * here is built from server/utils/access.ts: the actions are listed literally and a new
+ * here is built from server/utils/auth/access.ts: the actions are listed literally and a new
  * action in the code fails the first test until its column is added here.
  */
 const ACTIONS = [

@@ -1,7 +1,7 @@
 import { Op } from 'sequelize'
 import { describe, expect, it } from 'vitest'
-import { auditKind, auditWhere, spreadsheetSafe } from '../../server/utils/audit-trail'
-import { auditQuerySchema } from '../../shared/schemas/circle'
+import { auditKind, auditWhere, spreadsheetSafe } from '../../server/utils/audit/audit-trail'
+import { auditQuerySchema } from '#shared/audit/schemas'
 
 describe('audit filters', () => {
   it('turns a date range into whole days in the clinic\'s time zone, end day included', () => {

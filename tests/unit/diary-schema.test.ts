@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest'
 import en from '../../locales/en.json'
 import es from '../../locales/es.json'
-import { NOTE_MAX_LENGTH, diaryEntrySchema, emptyDiaryEntry } from '../../shared/schemas/diary'
-import type { DiaryEntryInput } from '../../shared/schemas/diary'
-import { RIGHT_NOW_ITEMS } from '../../shared/clinical/triage'
+import { NOTE_MAX_LENGTH, diaryEntrySchema, emptyDiaryEntry } from '#shared/diary/schemas'
+import type { DiaryEntryInput } from '#shared/diary/schemas'
+import { RIGHT_NOW_ITEMS } from '#shared/triage/rules'
 
 type Change = (entry: Record<string, unknown> & DiaryEntryInput) => void
 

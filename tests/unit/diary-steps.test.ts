@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { DIARY_STEPS, REVIEW_STEP, diaryStepOfPath } from '../../composables/useDiarySteps'
-import { diaryEntrySchema } from '../../shared/schemas/diary'
+import { diaryEntrySchema } from '#shared/diary/schemas'
 
 describe('the diary steps', () => {
   it('ask every part of the diary entry exactly once, and the review last', () => {

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import { LAB_RULES, evaluateLabTriage, interpretLab } from '../../shared/clinical/lab-triage'
-import type { LabContext, LabReading } from '../../shared/clinical/lab-triage'
-import { labResultSchema } from '../../shared/schemas/labs'
+import { LAB_RULES, evaluateLabTriage, interpretLab } from '#shared/labs/lab-triage'
+import type { LabContext, LabReading } from '#shared/labs/lab-triage'
+import { labResultSchema } from '#shared/labs/schemas'
 
 /*
  * The lab rules (clinic defaults), each checked where it fires and where it just misses,

@@ -17,7 +17,7 @@ import {
   qtcGrade,
   testosteroneNgDlToNmolL,
   testosteroneNmolLToNgDl,
-} from '../../shared/clinical/labs'
+} from '#shared/labs/calculations'
 
 const round = (value: number, places = 0) => Math.round(value * 10 ** places) / 10 ** places
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { isAlertMessage, retryDelayMs, sendErrorText } from '../../server/utils/outbox'
+import { isAlertMessage, retryDelayMs, sendErrorText } from '../../server/utils/mail/outbox'
 
 // The schedules are this project's own choice (common practice: exponential backoff with a
 // ceiling): ordinary e-mail at most one hour apart, alerts to staff at most two minutes.

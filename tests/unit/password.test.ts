@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { isRepetitive, isSequence } from '../../shared/schemas/auth'
-import { isCommonPassword, isPersonalPassword, passwordProblems } from '../../server/utils/password'
+import { isRepetitive, isSequence } from '#shared/auth/schemas'
+import { isCommonPassword, isPersonalPassword, passwordProblems } from '../../server/utils/auth/password'
 
 const ELIAS = { email: 'elias.marwood@demo.tidewell.test', name: 'Elias Marwood', clinicName: 'Larkspur Point Urology' }
 

@@ -11,8 +11,8 @@ import {
   sideOf,
   suggestSite,
   zonedDateTimeToUtc,
-} from '../../shared/clinical/schedule'
-import type { SiteCode, SiteUse } from '../../shared/clinical/schedule'
+} from '#shared/schedule/rules'
+import type { SiteCode, SiteUse } from '#shared/schedule/rules'
 
 const CHICAGO = 'America/Chicago'
 const HOUR = 60 * 60 * 1000

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import { addDays } from '../../shared/clinical/schedule'
-import { answerChangeRequestSchema, changeRequestSchema, preferredDatesOf, recordInjectionSchema, scheduleAppointmentSchema } from '../../shared/schemas/schedule'
-import { candidateDates, dueGroup, isWeekday, pickSlots, reminderLead } from '../../shared/scheduling/planning'
+import { addDays } from '#shared/schedule/rules'
+import { answerChangeRequestSchema, changeRequestSchema, preferredDatesOf, recordInjectionSchema, scheduleAppointmentSchema } from '#shared/schedule/schemas'
+import { candidateDates, dueGroup, isWeekday, pickSlots, reminderLead } from '#shared/schedule/planning'
 
 // Planning rules around the clinical schedule. The group edges, slot order and reminder
 // choice are Tidewell's own design (no published source); the 7 and 1 lead days are the

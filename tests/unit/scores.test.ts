@@ -8,7 +8,7 @@ import {
   hotFlushScoreFromDiary,
   ipss,
   phq2,
-} from '../../shared/clinical/scores'
+} from '#shared/diary/scores'
 
 const noSiteSigns = { pain: false, redness: false, swelling: false, lump: false, feverOrSpreadingRednessOrPus: false }
 

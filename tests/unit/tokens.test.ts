@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto'
 import { describe, expect, it } from 'vitest'
-import { hashToken, isTokenUsable, newRawToken, TOKEN_TTL_MS } from '../../server/utils/tokens'
+import { hashToken, isTokenUsable, newRawToken, TOKEN_TTL_MS } from '../../server/utils/auth/tokens'
 
 describe('one-time tokens', () => {
   it('stores only the SHA-256 of the raw token', () => {

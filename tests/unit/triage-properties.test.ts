@@ -1,9 +1,9 @@
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import type { z } from 'zod'
-import { RISK_FACTORS, emptyRiskProfile } from '../../shared/clinical/risk-profile'
-import type { RiskFactor, RiskProfile } from '../../shared/clinical/risk-profile'
-import { FATIGUE_LEVELS, HOT_FLUSH_INTERFERENCE, HOT_FLUSH_SEVERITIES } from '../../shared/clinical/scores'
+import { RISK_FACTORS, emptyRiskProfile } from '#shared/triage/risk-profile'
+import type { RiskFactor, RiskProfile } from '#shared/triage/risk-profile'
+import { FATIGUE_LEVELS, HOT_FLUSH_INTERFERENCE, HOT_FLUSH_SEVERITIES } from '#shared/diary/scores'
 import {
   ANSWERS_NOT_RAISING_ALONE,
   LEVELS,
@@ -12,10 +12,10 @@ import {
   compareLevels,
   evaluateTriage,
   rightNowTriggered,
-} from '../../shared/clinical/triage'
-import type { TriageContext, TriageResult } from '../../shared/clinical/triage'
-import { CONSTIPATION_LEVELS, diaryEntrySchema, emptyDiaryEntry } from '../../shared/schemas/diary'
-import type { DiaryEntryInput } from '../../shared/schemas/diary'
+} from '#shared/triage/rules'
+import type { TriageContext, TriageResult } from '#shared/triage/rules'
+import { CONSTIPATION_LEVELS, diaryEntrySchema, emptyDiaryEntry } from '#shared/diary/schemas'
+import type { DiaryEntryInput } from '#shared/diary/schemas'
 
 /*
  * Property-based tests of the triage engine (issue 9: safe by construction, not by

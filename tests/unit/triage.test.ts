@@ -13,14 +13,14 @@ import {
   levelInstructionKey,
   respondBy,
   rightNowTriggered,
-} from '../../shared/clinical/triage'
-import type { TriageContext, TriageLevel } from '../../shared/clinical/triage'
-import { addDays, flareWatch } from '../../shared/clinical/schedule'
-import { emptyRiskProfile } from '../../shared/clinical/risk-profile'
-import type { RiskFactor } from '../../shared/clinical/risk-profile'
-import { gradeConstipation, gradeDiarrhoea, temperatureCelsius } from '../../shared/clinical/scores'
-import { emptyDiaryEntry } from '../../shared/schemas/diary'
-import type { DiaryEntryInput } from '../../shared/schemas/diary'
+} from '#shared/triage/rules'
+import type { TriageContext, TriageLevel } from '#shared/triage/rules'
+import { addDays, flareWatch } from '#shared/schedule/rules'
+import { emptyRiskProfile } from '#shared/triage/risk-profile'
+import type { RiskFactor } from '#shared/triage/risk-profile'
+import { gradeConstipation, gradeDiarrhoea, temperatureCelsius } from '#shared/diary/scores'
+import { emptyDiaryEntry } from '#shared/diary/schemas'
+import type { DiaryEntryInput } from '#shared/diary/schemas'
 
 // Wednesday 2025-03-12 15:00 UTC.
 const SUBMITTED_AT = new Date('2025-03-12T15:00:00Z')
@@ -90,7 +90,7 @@ const risk = (...factors: RiskFactor[]): Partial<TriageContext> => {
  * markers for a value with no published source: "common practice" and "from memory".
  * A case below cites its documents in `source`; the rule that fires must name exactly
  * the same documents and markers in its own declared source (rule.source, kept as data
- * in shared/clinical/triage.ts), so a rule that changes its basis, or a case that cites
+ * in shared/triage/rules.ts), so a rule that changes its basis, or a case that cites
  * something the rule does not rest on, fails.
  */
 const DOCUMENTS: Record<string, RegExp> = {

@@ -1,6 +1,6 @@
 import { AsyncLocalStorage } from 'node:async_hooks'
 import { describe, expect, it } from 'vitest'
-import { createWriteQueue, isWriteQueueBusy } from '../../server/utils/write-queue'
+import { createWriteQueue, isWriteQueueBusy } from '../../server/utils/core/write-queue'
 
 /** A job that runs until its release() is called, and says whether it started. */
 function gate() {

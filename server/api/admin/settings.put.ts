@@ -1,4 +1,4 @@
-import { clinicSettingsSchema } from '#shared/schemas/settings'
+import { clinicSettingsSchema } from '#shared/settings/schemas'
 import { ClinicSetting } from '../../db/models'
 
 /** Saves every clinic setting at once (admins); the change is in the audit trail. */

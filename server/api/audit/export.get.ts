@@ -1,7 +1,7 @@
 import { stringify } from 'csv-stringify/sync'
 import { AuditEvent } from '../../db/models'
-import { auditQuerySchema } from '#shared/schemas/circle'
-import { localDate } from '#shared/clinical/schedule'
+import { auditQuerySchema } from '#shared/audit/schemas'
+import { localDate } from '#shared/schedule/rules'
 
 const COLUMNS = ['id', 'at', 'actor_user_id', 'actor_name', 'actor_email', 'actor_role', 'patient_id', 'patient_clinic_number', 'patient_name', 'action', 'resource', 'outcome', 'ip']
 

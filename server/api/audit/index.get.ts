@@ -1,5 +1,5 @@
 import { AuditEvent } from '../../db/models'
-import { auditQuerySchema } from '#shared/schemas/circle'
+import { auditQuerySchema } from '#shared/audit/schemas'
 
 /**
  * The audit trail for admins, newest first, one page at a time, with filters (person,

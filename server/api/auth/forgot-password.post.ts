@@ -1,10 +1,10 @@
-import { forgotPasswordSchema } from '#shared/schemas/auth'
+import { forgotPasswordSchema } from '#shared/auth/schemas'
 
 /**
  * Always the same answer, at once, whether or not the e-mail belongs to an account: the
  * route only counts the request (per client address: 429 past the limit; per e-mail
  * address: past it, no e-mail, the same answer) and queues it. Looking the address up
- * and writing the e-mail happen afterwards (server/utils/reset-requests.ts).
+ * and writing the e-mail happen afterwards (server/utils/auth/reset-requests.ts).
  */
 export default defineEventHandler(async (event) => {
   const { email } = await readValidatedBody(event, parseWith(forgotPasswordSchema))

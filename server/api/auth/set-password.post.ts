@@ -1,4 +1,4 @@
-import { setPasswordSchema } from '#shared/schemas/auth'
+import { setPasswordSchema } from '#shared/auth/schemas'
 import { User } from '../../db/models'
 
 /**

@@ -1,4 +1,4 @@
-import { signInSchema } from '#shared/schemas/auth'
+import { signInSchema } from '#shared/auth/schemas'
 import { Patient, User } from '../../db/models'
 
 // A real scrypt hash of a random string, so an unknown e-mail costs the same time as a wrong password.

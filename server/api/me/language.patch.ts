@@ -1,4 +1,4 @@
-import { languageSchema } from '#shared/schemas/auth'
+import { languageSchema } from '#shared/auth/schemas'
 import { User } from '../../db/models'
 
 /** Remembers the signed-in user's language (e-mails follow it too). */

@@ -1,4 +1,4 @@
-import { ownPhoneSchema } from '#shared/schemas/contact'
+import { ownPhoneSchema } from '#shared/contact/schemas'
 import { User } from '../../db/models'
 
 /**

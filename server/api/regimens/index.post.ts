@@ -1,5 +1,5 @@
 import { Op, fn, col, where } from 'sequelize'
-import { createRegimenSchema } from '#shared/schemas/schedule'
+import { createRegimenSchema } from '#shared/schedule/schemas'
 import { Regimen } from '../../db/models'
 
 /** Adds a regimen of the clinic's own (admins and clinicians). Names are unique, in any case. */

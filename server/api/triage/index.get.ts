@@ -1,7 +1,7 @@
 import { literal, Op } from 'sequelize'
 import type { WhereOptions } from 'sequelize'
-import { LEVELS } from '#shared/clinical/triage'
-import { triageQuerySchema } from '#shared/schemas/triage'
+import { LEVELS } from '#shared/triage/rules'
+import { triageQuerySchema } from '#shared/triage/schemas'
 import { Patient, TriageItem, User } from '../../db/models'
 
 const LEVEL_RANK = literal(`CASE "TriageItem"."level" WHEN 'emergency' THEN 0 WHEN 'urgent' THEN 1 WHEN 'routine' THEN 2 ELSE 3 END`)

@@ -1,6 +1,6 @@
 import { UniqueConstraintError } from 'sequelize'
-import { createUserSchema } from '#shared/schemas/auth'
-import type { Role } from '#shared/types/roles'
+import { createUserSchema } from '#shared/auth/schemas'
+import type { Role } from '#shared/auth/roles'
 import { Patient, User } from '../../db/models'
 
 /** Which roles each staff role may create: only an admin creates another admin. */

@@ -18,7 +18,7 @@ export const up: MigrationFn = async ({ context: qi }) => {
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
     ...timestamps,
   })
-  // The four common regimens (DEFAULT_REGIMENS in shared/clinical/schedule.ts, written out
+  // The four common regimens (DEFAULT_REGIMENS in shared/schedule/rules.ts, written out
   // here so this migration never changes): every 4, 12, 16 and 24 weeks (US prescribing
   // information of the 1-, 3-, 4- and 6-month depot suspensions, section 2).
   const now = new Date()

@@ -2,7 +2,7 @@ import { DataTypes } from 'sequelize'
 import type { MigrationFn } from './types'
 
 /*
- * Issue 11, revocable sessions (server/utils/sessions.ts): the sealed session cookie
+ * Issue 11, revocable sessions (server/utils/auth/sessions.ts): the sealed session cookie
  * carries the id of one user_sessions row, and every signed-in request needs that row to
  * be live. Signing out, "sign out everywhere", a password change, a deactivation and the
  * idle timeout end rows (ended_at, ended_reason); a copied cookie then answers 401.

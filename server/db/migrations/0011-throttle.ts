@@ -3,7 +3,7 @@ import type { MigrationFn } from './types'
 
 /*
  * Issue 11, throttling kept in the database so it survives a restart
- * (server/utils/sign-in-limit.ts, server/utils/throttle.ts):
+ * (server/utils/auth/sign-in-limit.ts, server/utils/auth/throttle.ts):
  * - sign_in_failures gets the client address (hashed) beside the account, so failures are
  *   counted per account, per address and per pair;
  * - throttle_hits counts requests per scope and key (forgot-password per address and per

@@ -3,7 +3,7 @@ import type { MigrationFn } from './types'
 
 /*
  * Issue 11, a second factor (TOTP, RFC 6238) for staff, optional for patients and
- * caregivers (server/utils/totp.ts):
+ * caregivers (server/utils/auth/totp.ts):
  * - users.totp_secret: the confirmed secret, AES-256-GCM encrypted (never returned after
  *   enrolment); users.totp_pending_secret: the one shown on the enrolment page until a code
  *   confirms it; users.totp_enabled_at; users.totp_last_step: the last accepted time step,

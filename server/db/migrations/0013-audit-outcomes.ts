@@ -2,7 +2,7 @@ import type { MigrationFn } from './types'
 
 /*
  * Issue 11, the audit trail records what happened rather than what was allowed
- * (server/utils/audit.ts, AUDIT_OUTCOMES): a line of an access now says `done`,
+ * (server/utils/audit/audit.ts, AUDIT_OUTCOMES): a line of an access now says `done`,
  * `refused-policy`, `refused-invalid`, `refused-conflict` or `failed`, written when the
  * request has finished (server/plugins/00.audit-outcome.ts).
  * - The old `denied` lines were refusals by the access policy: they become `refused-policy`.

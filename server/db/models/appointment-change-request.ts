@@ -1,6 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
-import type { ChangeDecision, ChangeRequestStatus } from '#shared/scheduling/types'
+import type { ChangeDecision, ChangeRequestStatus } from '#shared/schedule/statuses'
 import type { Appointment } from './appointment'
 import type { Patient } from './patient'
 import type { User } from './user'

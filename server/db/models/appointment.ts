@@ -1,6 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
-import type { AppointmentStatus } from '#shared/scheduling/types'
+import type { AppointmentStatus } from '#shared/schedule/statuses'
 import type { Patient } from './patient'
 import type { User } from './user'
 

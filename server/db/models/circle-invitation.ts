@@ -1,6 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
-import type { Language } from '#shared/types/roles'
+import type { Language } from '#shared/auth/roles'
 import type { CareGrant } from './care-grant'
 import type { Patient } from './patient'
 import type { User } from './user'

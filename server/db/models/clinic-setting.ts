@@ -1,7 +1,7 @@
 import { DataTypes, Model } from 'sequelize'
 import type { InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
 
-/** One clinic setting (key and JSON value); defaults live in server/utils/settings.ts. */
+/** One clinic setting (key and JSON value); defaults live in server/utils/core/settings.ts. */
 export class ClinicSetting extends Model<InferAttributes<ClinicSetting>, InferCreationAttributes<ClinicSetting>> {
   declare key: string
   declare value: unknown

@@ -1,7 +1,7 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
-import type { TriageLevel, TriageReason } from '#shared/clinical/triage'
-import type { DiaryEntryInput } from '#shared/schemas/diary'
+import type { TriageLevel, TriageReason } from '#shared/triage/rules'
+import type { DiaryEntryInput } from '#shared/diary/schemas'
 import type { Patient } from './patient'
 import type { User } from './user'
 

@@ -1,6 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
-import type { SiteCode } from '#shared/clinical/schedule'
+import type { SiteCode } from '#shared/schedule/rules'
 import type { Patient } from './patient'
 import type { Regimen } from './regimen'
 import type { User } from './user'

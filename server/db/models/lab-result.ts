@@ -1,6 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
-import type { LabKind } from '#shared/clinical/lab-triage'
+import type { LabKind } from '#shared/labs/lab-triage'
 import type { Patient } from './patient'
 import type { User } from './user'
 

@@ -1,6 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
-import type { ContactPreference, PatientPhone } from '#shared/schemas/contact'
+import type { ContactPreference, PatientPhone } from '#shared/contact/schemas'
 import type { User } from './user'
 
 export class Patient extends Model<InferAttributes<Patient>, InferCreationAttributes<Patient>> {

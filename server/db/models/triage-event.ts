@@ -1,6 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
-import type { TriageEventType } from '#shared/schemas/triage'
+import type { TriageEventType } from '#shared/triage/schemas'
 import type { TriageItem } from './triage-item'
 import type { User } from './user'
 

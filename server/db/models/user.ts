@@ -1,6 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
-import type { Language, Role } from '#shared/types/roles'
+import type { Language, Role } from '#shared/auth/roles'
 
 export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
   declare id: CreationOptional<number>
@@ -12,7 +12,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare active: CreationOptional<boolean>
   /** His own phone (a caregiver's number the nurse can call); patients keep theirs on the patient record. */
   declare phone: CreationOptional<string | null>
-  /** Second factor (migration 0012, server/utils/totp.ts): secrets AES-256-GCM encrypted, never sent out after enrolment. */
+  /** Second factor (migration 0012, server/utils/auth/totp.ts): secrets AES-256-GCM encrypted, never sent out after enrolment. */
   declare totpSecret: CreationOptional<string | null>
   declare totpPendingSecret: CreationOptional<string | null>
   declare totpEnabledAt: CreationOptional<Date | null>

@@ -1,6 +1,6 @@
 import type { Sequelize, Transaction } from 'sequelize'
-import { diaryEntryWith } from '#shared/schemas/diary'
-import type { Disposition, TriageEventType } from '#shared/schemas/triage'
+import { diaryEntryWith } from '#shared/diary/schemas'
+import type { Disposition, TriageEventType } from '#shared/triage/schemas'
 import { Patient, TriageEvent, User } from '../models'
 import type { TriageItem } from '../models'
 import { runSeedSteps } from './demo'

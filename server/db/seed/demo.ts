@@ -1,9 +1,9 @@
 import type { Sequelize, Transaction } from 'sequelize'
 import { CareGrant, ClinicSetting, Patient, User } from '../models'
-import type { RiskFactor } from '#shared/clinical/risk-profile'
-import { riskProfileOf } from '#shared/clinical/risk-profile'
-import type { ContactPreference, PatientPhone } from '#shared/schemas/contact'
-import type { Language, Role } from '#shared/types/roles'
+import type { RiskFactor } from '#shared/triage/risk-profile'
+import { riskProfileOf } from '#shared/triage/risk-profile'
+import type { ContactPreference, PatientPhone } from '#shared/contact/schemas'
+import type { Language, Role } from '#shared/auth/roles'
 import { seedDemoLabs } from './labs'
 import { seedDemoSchedules } from './schedule'
 

@@ -1,8 +1,8 @@
 import type { Transaction } from 'sequelize'
-import { FIXED_UNITS } from '#shared/clinical/lab-triage'
-import type { LabKind } from '#shared/clinical/lab-triage'
-import { addDays, localDate } from '#shared/clinical/schedule'
-import { DEFAULT_SETTINGS } from '../../utils/settings'
+import { FIXED_UNITS } from '#shared/labs/lab-triage'
+import type { LabKind } from '#shared/labs/lab-triage'
+import { addDays, localDate } from '#shared/schedule/rules'
+import { DEFAULT_SETTINGS } from '../../utils/core/settings'
 import { ClinicSetting, LabResult, Patient, User } from '../models'
 
 /*

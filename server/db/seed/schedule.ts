@@ -1,8 +1,8 @@
 import type { Transaction } from 'sequelize'
-import { addDays, localDate, suggestSite, zonedDateTimeToUtc } from '#shared/clinical/schedule'
-import type { SiteUse } from '#shared/clinical/schedule'
-import { candidateDates } from '#shared/scheduling/planning'
-import { DEFAULT_SETTINGS } from '../../utils/settings'
+import { addDays, localDate, suggestSite, zonedDateTimeToUtc } from '#shared/schedule/rules'
+import type { SiteUse } from '#shared/schedule/rules'
+import { candidateDates } from '#shared/schedule/planning'
+import { DEFAULT_SETTINGS } from '../../utils/core/settings'
 import { Appointment, AppointmentChangeRequest, ClinicSetting, Injection, Patient, PatientRegimen, Regimen, User } from '../models'
 
 /**

@@ -1,7 +1,7 @@
 import { Op } from 'sequelize'
-import { daysBetween, localDate } from '#shared/clinical/schedule'
-import { PLEASE_BOOK_DAYS, reminderLead } from '#shared/scheduling/planning'
-import { OPEN_APPOINTMENT_STATUSES } from '#shared/scheduling/types'
+import { daysBetween, localDate } from '#shared/schedule/rules'
+import { PLEASE_BOOK_DAYS, reminderLead } from '#shared/schedule/planning'
+import { OPEN_APPOINTMENT_STATUSES } from '#shared/schedule/statuses'
 import { Appointment, Patient, User } from '../../db/models'
 
 /**

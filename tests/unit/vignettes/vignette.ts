@@ -1,5 +1,5 @@
-import type { RiskProfile } from '../../../shared/clinical/risk-profile'
-import type { diaryEntryWith } from '../../../shared/schemas/diary'
+import type { RiskProfile } from '#shared/triage/risk-profile'
+import type { diaryEntryWith } from '#shared/diary/schemas'
 
 /*
  * A clinical vignette: one realistic man and his diary entry, with the LOWEST level a

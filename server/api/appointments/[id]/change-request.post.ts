@@ -1,6 +1,6 @@
 import { Op } from 'sequelize'
-import { changeRequestSchema, preferredDatesOf } from '#shared/schemas/schedule'
-import { OPEN_APPOINTMENT_STATUSES } from '#shared/scheduling/types'
+import { changeRequestSchema, preferredDatesOf } from '#shared/schedule/schemas'
+import { OPEN_APPOINTMENT_STATUSES } from '#shared/schedule/statuses'
 import { Appointment, AppointmentChangeRequest } from '../../../db/models'
 
 /**

@@ -1,4 +1,4 @@
-import { totpConfirmSchema } from '#shared/schemas/totp'
+import { totpConfirmSchema } from '#shared/auth/totp'
 import { User } from '../../../db/models'
 
 /**

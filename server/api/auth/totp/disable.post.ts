@@ -1,4 +1,4 @@
-import { totpConfirmSchema } from '#shared/schemas/totp'
+import { totpConfirmSchema } from '#shared/auth/totp'
 import { TotpRecoveryCode, User } from '../../../db/models'
 
 /** A patient or caregiver turns his second factor off, with a current code. Staff cannot. */

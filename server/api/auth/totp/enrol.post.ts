@@ -1,4 +1,4 @@
-import type { TotpEnrolment } from '#shared/schemas/totp'
+import type { TotpEnrolment } from '#shared/auth/totp'
 import { User } from '../../../db/models'
 
 /**

@@ -1,4 +1,4 @@
-import type { TotpStatus } from '#shared/schemas/totp'
+import type { TotpStatus } from '#shared/auth/totp'
 import { User } from '../../../db/models'
 
 /** Where the user stands with the second factor: half signed in (what comes next) or signed in. */

@@ -1,4 +1,4 @@
-import { totpVerifySchema } from '#shared/schemas/totp'
+import { totpVerifySchema } from '#shared/auth/totp'
 
 /** The second step of signing in: a code from the app, or one recovery code (spent). */
 export default defineEventHandler(async (event) => {

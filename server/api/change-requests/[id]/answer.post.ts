@@ -1,6 +1,6 @@
-import { zonedDateTimeToUtc } from '#shared/clinical/schedule'
-import { answerChangeRequestSchema } from '#shared/schemas/schedule'
-import { OPEN_APPOINTMENT_STATUSES } from '#shared/scheduling/types'
+import { zonedDateTimeToUtc } from '#shared/schedule/rules'
+import { answerChangeRequestSchema } from '#shared/schedule/schemas'
+import { OPEN_APPOINTMENT_STATUSES } from '#shared/schedule/statuses'
 import type { Transaction } from 'sequelize'
 import { Appointment, AppointmentChangeRequest, User } from '../../../db/models'
 

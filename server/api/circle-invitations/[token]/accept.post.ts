@@ -1,5 +1,5 @@
 import { Op } from 'sequelize'
-import { acceptInvitationSchema } from '#shared/schemas/circle'
+import { acceptInvitationSchema } from '#shared/circle/schemas'
 import { CareGrant, CircleInvitation, User } from '../../../db/models'
 
 /**

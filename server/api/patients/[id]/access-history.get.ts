@@ -1,10 +1,10 @@
 import { User } from '../../../db/models'
-import { pageQuerySchema } from '#shared/schemas/circle'
+import { pageQuerySchema } from '#shared/audit/schemas'
 
 /**
  * The patient's own view of the audit trail: who (staff or his caregivers) looked at or
  * changed his record, one line per person, per day in the clinic's time zone and per kind
- * (read, change, refused) with a count, newest day first (server/utils/audit-history.ts).
+ * (read, change, refused) with a count, newest day first (server/utils/audit/audit-history.ts).
  * His own actions and refusals by the access policy are left out; admins see those in the
  * full trail. A request refused as invalid shows as refused, never as a change.
  */

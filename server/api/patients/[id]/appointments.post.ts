@@ -1,7 +1,7 @@
 import { Op } from 'sequelize'
-import { zonedDateTimeToUtc } from '#shared/clinical/schedule'
-import { scheduleAppointmentSchema } from '#shared/schemas/schedule'
-import { OPEN_APPOINTMENT_STATUSES } from '#shared/scheduling/types'
+import { zonedDateTimeToUtc } from '#shared/schedule/rules'
+import { scheduleAppointmentSchema } from '#shared/schedule/schemas'
+import { OPEN_APPOINTMENT_STATUSES } from '#shared/schedule/statuses'
 import { Appointment, AppointmentChangeRequest, User } from '../../../db/models'
 
 /**

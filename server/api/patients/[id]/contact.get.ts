@@ -1,4 +1,4 @@
-import type { PatientContactView } from '#shared/types/contact'
+import type { PatientContactView } from '#shared/contact/views'
 
 /** How the care team reaches him: his phones, the best times to call, his preference. */
 export default defineEventHandler(async (event): Promise<PatientContactView> => {

@@ -1,5 +1,5 @@
-import { patientContactSchema } from '#shared/schemas/contact'
-import type { PatientContactView } from '#shared/types/contact'
+import { patientContactSchema } from '#shared/contact/schemas'
+import type { PatientContactView } from '#shared/contact/views'
 
 /** Sets his phones, best times to call and preferred contact (the patient himself, or staff). */
 export default defineEventHandler(async (event): Promise<PatientContactView> => {

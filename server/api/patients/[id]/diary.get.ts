@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { intQuery } from '#shared/schemas/text'
+import { intQuery } from '#shared/common/text'
 import { DiaryEntry, TriageItem, User } from '../../../db/models'
 
 const querySchema = z.object({

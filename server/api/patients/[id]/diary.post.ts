@@ -1,4 +1,4 @@
-import { diarySubmissionSchema } from '#shared/schemas/diary'
+import { diarySubmissionSchema } from '#shared/diary/schemas'
 
 /**
  * A weekly diary entry, from the patient or a caregiver allowed to log. The server works

@@ -1,5 +1,5 @@
 import { Injection, Regimen, User } from '../../../db/models'
-import type { InjectionView } from '#shared/types/schedule'
+import type { InjectionView } from '#shared/schedule/views'
 
 /** The patient's injection history, newest first, with the sites used. */
 export default defineEventHandler(async (event): Promise<InjectionView[]> => {

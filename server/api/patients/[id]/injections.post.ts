@@ -1,7 +1,7 @@
 import { Op } from 'sequelize'
-import { zonedDateTimeToUtc } from '#shared/clinical/schedule'
-import { recordInjectionSchema } from '#shared/schemas/schedule'
-import { OPEN_APPOINTMENT_STATUSES } from '#shared/scheduling/types'
+import { zonedDateTimeToUtc } from '#shared/schedule/rules'
+import { recordInjectionSchema } from '#shared/schedule/schemas'
+import { OPEN_APPOINTMENT_STATUSES } from '#shared/schedule/statuses'
 import { Appointment, Injection, PatientRegimen, Regimen, User } from '../../../db/models'
 
 /** Minutes a clock may run ahead before a time counts as "in the future". */

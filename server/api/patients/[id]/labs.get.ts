@@ -1,4 +1,4 @@
-import type { LabResultsView } from '#shared/types/labs'
+import type { LabResultsView } from '#shared/labs/views'
 
 /** His lab and ECG results, newest first, each with its interpretation and level. */
 export default defineEventHandler(async (event): Promise<LabResultsView> => {

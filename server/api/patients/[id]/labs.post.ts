@@ -1,6 +1,6 @@
-import { FIXED_UNITS } from '#shared/clinical/lab-triage'
-import { respondBy } from '#shared/clinical/triage'
-import { labResultSchema } from '#shared/schemas/labs'
+import { FIXED_UNITS } from '#shared/labs/lab-triage'
+import { respondBy } from '#shared/triage/rules'
+import { labResultSchema } from '#shared/labs/schemas'
 import { LabResult } from '../../../db/models'
 
 /**

@@ -1,4 +1,4 @@
-import { setRegimenSchema } from '#shared/schemas/schedule'
+import { setRegimenSchema } from '#shared/schedule/schemas'
 import { PatientRegimen, Regimen } from '../../../db/models'
 
 /** Puts the patient on a regimen from a date (nurses and clinicians); the old one ends then. */

@@ -1,5 +1,5 @@
-import { riskProfileOf } from '#shared/clinical/risk-profile'
-import type { RiskProfileView } from '#shared/types/contact'
+import { riskProfileOf } from '#shared/triage/risk-profile'
+import type { RiskProfileView } from '#shared/contact/views'
 
 /** The risk factors that raise his triage (nurses and clinicians). */
 export default defineEventHandler(async (event): Promise<RiskProfileView> => {

@@ -1,6 +1,6 @@
-import { riskProfileOf } from '#shared/clinical/risk-profile'
-import { riskProfileSchema } from '#shared/schemas/risk-profile'
-import type { RiskProfileView } from '#shared/types/contact'
+import { riskProfileOf } from '#shared/triage/risk-profile'
+import { riskProfileSchema } from '#shared/triage/risk-profile-schema'
+import type { RiskProfileView } from '#shared/contact/views'
 
 /**
  * Sets his risk profile (nurses and clinicians). Entries from now on are triaged with it;

@@ -1,7 +1,7 @@
 import { Op } from 'sequelize'
-import { addDays, localDate, zonedDateTimeToUtc } from '#shared/clinical/schedule'
-import { candidateDates, pickSlots } from '#shared/scheduling/planning'
-import { OPEN_APPOINTMENT_STATUSES } from '#shared/scheduling/types'
+import { addDays, localDate, zonedDateTimeToUtc } from '#shared/schedule/rules'
+import { candidateDates, pickSlots } from '#shared/schedule/planning'
+import { OPEN_APPOINTMENT_STATUSES } from '#shared/schedule/statuses'
 import { Appointment } from '../../../db/models'
 
 /** Clinic injection times, every half hour from 09:00 to 15:30 (the demo clinic's hours). */

@@ -1,5 +1,5 @@
-import { triageActionSchema } from '#shared/schemas/triage'
-import type { TriageEventType } from '#shared/schemas/triage'
+import { triageActionSchema } from '#shared/triage/schemas'
+import type { TriageEventType } from '#shared/triage/schemas'
 import { Op } from 'sequelize'
 import { DiaryEntry, TriageEvent, TriageItem } from '../../../db/models'
 

@@ -1,5 +1,5 @@
 import { Op } from 'sequelize'
-import { circlePermissionsSchema } from '#shared/schemas/circle'
+import { circlePermissionsSchema } from '#shared/circle/schemas'
 import { CareGrant } from '../../../../db/models'
 
 /**

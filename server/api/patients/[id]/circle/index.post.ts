@@ -1,5 +1,5 @@
 import { Op } from 'sequelize'
-import { circleInviteSchema } from '#shared/schemas/circle'
+import { circleInviteSchema } from '#shared/circle/schemas'
 import { CareGrant, CircleInvitation, User } from '../../../../db/models'
 
 /**

@@ -1,4 +1,4 @@
-import { rightNowReportSchema } from '#shared/schemas/diary'
+import { rightNowReportSchema } from '#shared/diary/schemas'
 
 /**
  * A right-now "yes" sent the moment it is answered, before the rest of the diary: opens

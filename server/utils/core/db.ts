@@ -1,0 +1,251 @@
+import { AsyncLocalStorage } from 'node:async_hooks'
+import { mkdirSync } from 'node:fs'
+import { dirname, resolve } from 'node:path'
+import { Sequelize, Transaction } from 'sequelize'
+import sqlite3 from 'sqlite3'
+import { SequelizeStorage, Umzug } from 'umzug'
+import { migrations } from '../../db/migrations'
+import { initModels } from '../../db/models'
+import type { WriteQueue } from './write-queue'
+import { createWriteQueue } from './write-queue'
+import { seedDemoActivity } from '../../db/seed/activity'
+import { seedDemoClinic } from '../../db/seed/demo'
+
+let ready: Promise<Sequelize> | undefined
+let seeded: Promise<Sequelize> | undefined
+
+/** Applies every pending migration; returns the names it applied. */
+export async function migrate(sequelize: Sequelize) {
+  const umzug = new Umzug({
+    migrations,
+    context: sequelize.getQueryInterface(),
+    storage: new SequelizeStorage({ sequelize, tableName: 'schema_migrations' }),
+    logger: undefined,
+  })
+  const applied = await umzug.up()
+  return applied.map(m => m.name)
+}
+
+type Connection = sqlite3.Database & { tidewellConfigured?: boolean }
+
+/*
+ * Sequelize's SQLite dialect asks `PRAGMA table_info(<table>)` before every SELECT (to know
+ * which columns hold dates and booleans), one more trip through libuv's thread pool each
+ * time; inside a write transaction every trip also waits for the event loop while the
+ * write line waits behind it. The schema does not change once the migrations have run, so
+ * each table's answer is kept from the first time (cleared when migrations run).
+ */
+const TABLE_INFO = /^PRAGMA table_info\(`?([\w]+)`?\)$/
+const tableInfo = new Map<string, unknown[]>()
+let schemaSettled = false
+
+function keepTableInfo(connection: Connection) {
+  const all = connection.all.bind(connection) as (sql: string, ...rest: unknown[]) => Connection
+  connection.all = ((sql: string, ...rest: unknown[]) => {
+    const table = schemaSettled && typeof sql === 'string' ? TABLE_INFO.exec(sql)?.[1] : undefined
+    const callback = rest.at(-1)
+    if (!table || rest.length !== 1 || typeof callback !== 'function') return all(sql, ...rest)
+    const kept = tableInfo.get(table)
+    if (kept) {
+      process.nextTick(callback as (error: null, rows: unknown[]) => void, null, kept)
+      return connection
+    }
+    return all(sql, (error: Error | null, rows: unknown[]) => {
+      if (!error && schemaSettled) tableInfo.set(table, rows)
+      ;(callback as (error: Error | null, rows: unknown[]) => void)(error, rows)
+    })
+  }) as Connection['all']
+}
+
+/**
+ * Sequelize opens one SQLite connection per transaction (and closes it after), turning
+ * foreign keys on for each, but has no hook for other per-connection settings on this
+ * dialect: wrap getConnection to give every connection a busy timeout. Since transactions
+ * of this process run one at a time (queueWrites), those that take their turn in the
+ * write line share one writer connection, kept open: a new connection would open the
+ * file and read the schema again for every transaction. A connection Sequelize gives up
+ * on (a failed COMMIT or ROLLBACK leaves it in an unknown state) is closed and the next
+ * transaction opens a fresh one.
+ */
+function configureEachConnection(sequelize: Sequelize) {
+  const manager = sequelize.connectionManager as unknown as {
+    getConnection: (options?: { uuid?: string }) => Promise<Connection>
+    releaseConnection: (connection: Connection, force?: boolean) => unknown
+    destroyConnection: (connection: Connection) => Promise<unknown>
+    connections: Record<string, Connection>
+  }
+  const open = manager.getConnection.bind(manager)
+  const release = manager.releaseConnection.bind(manager)
+  const destroy = manager.destroyConnection.bind(manager)
+  let writer: Connection | undefined
+  // synchronous = NORMAL: in WAL mode a commit no longer waits for fsync (the WAL is synced
+  // at checkpoints); a commit survives a crash of the process (kill -9), and only a power
+  // cut or an OS crash may lose the last commits (see "The write path" in DEVELOPERS.md).
+  const configured = async (connection: Connection) => {
+    if (!connection.tidewellConfigured) {
+      connection.configure('busyTimeout', 5000)
+      keepTableInfo(connection)
+      await new Promise<void>((done, fail) => connection.run('PRAGMA synchronous = NORMAL', error => (error ? fail(error) : done())))
+      connection.tidewellConfigured = true
+    }
+    return connection
+  }
+  manager.getConnection = async (options) => {
+    if (options?.uuid && options.uuid !== 'default' && turns.getStore()?.writer) {
+      writer ??= await configured(await open({ ...options, uuid: WRITER }))
+      return writer
+    }
+    return configured(await open(options))
+  }
+  manager.releaseConnection = (connection, force) => (connection === writer ? undefined : release(connection, force))
+  manager.destroyConnection = async (connection) => {
+    if (connection !== writer) return destroy(connection)
+    writer = undefined
+    Reflect.deleteProperty(manager.connections, WRITER)
+    await new Promise(done => connection.close(() => done(undefined)))
+  }
+}
+
+/** The key of the shared writer connection in Sequelize's connection map. */
+const WRITER = 'tidewell-writer'
+
+/*
+ * SQLite has one writer at a time, and every transaction here takes the write lock at
+ * BEGIN. Left to SQLite, a writer that finds the lock taken waits in the busy handler on
+ * one of libuv's four pool threads; four such waiters take every thread, and the
+ * transaction that holds the lock cannot run its next statement until they time out
+ * (measured: see "The write path" in DEVELOPERS.md). So every write of this process waits
+ * its turn in JavaScript instead, in one bounded line with a deadline (write-queue.ts):
+ *
+ * - a managed transaction (sequelize.transaction(callback)) runs when its turn comes; one
+ *   started inside another's callback becomes a savepoint of it, on its connection;
+ * - a statement made while a transaction's callback runs, without a transaction of its
+ *   own, runs inside that transaction (an audit line, a settings read), never beside it;
+ * - a write outside any transaction (Model.create, update, destroy, a raw INSERT) waits
+ *   its turn in the same line and runs alone, ahead of the waiting transactions (it is
+ *   one statement; a nurse's read that writes an audit line should not wait for fifty);
+ * - the transactions that take their turn share one writer connection, kept open;
+ * - reads outside a transaction do not wait: in WAL mode they run beside the writer.
+ *
+ * A full line or a passed deadline rejects with a 503 (errors.busy) before anything is
+ * written; server/plugins/04.write-busy.ts adds the Retry-After header.
+ */
+interface Turn {
+  /** The transaction whose callback is running, or null for a lone write. */
+  transaction: Transaction | null
+  /** Whether the job still holds the line (false once it has finished). */
+  holding: boolean
+  /** A transaction taking its turn: it runs on the shared writer connection. */
+  writer?: boolean
+}
+
+const WRITE_STATEMENT = /^\s*(INSERT|UPDATE|DELETE|REPLACE|CREATE|DROP|ALTER|VACUUM|REINDEX|PRAGMA\s+\w+\s*=)/i
+
+export function isWriteStatement(sql: unknown): boolean {
+  const text = typeof sql === 'string' ? sql : (sql as { query?: unknown } | null)?.query
+  return typeof text === 'string' && WRITE_STATEMENT.test(text)
+}
+
+const turns = new AsyncLocalStorage<Turn>()
+
+/** Committed or rolled back (Sequelize sets `finished`; its types do not declare it). */
+const isFinished = (transaction: Transaction) => (transaction as Transaction & { finished?: string }).finished !== undefined
+let writeQueue: WriteQueue | undefined
+
+/** The line this process's writes wait in (undefined before the first connection). */
+export function useWriteQueue(): WriteQueue | undefined {
+  return writeQueue
+}
+
+function queueWrites(sequelize: Sequelize, queue: WriteQueue) {
+  const begin = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>
+  sequelize.transaction = ((...args: unknown[]) => {
+    const callback = args.find(arg => typeof arg === 'function') as ((t: Transaction) => Promise<unknown>) | undefined
+    // Unmanaged transactions (no callback) are not used here; they would bypass the line.
+    if (!callback) return begin(...args)
+    const options = ((args.length > 1 ? args[0] : undefined) ?? {}) as { transaction?: Transaction | null }
+    const turn = turns.getStore()
+    if (turn?.holding && turn.transaction && !isFinished(turn.transaction)) {
+      return begin({ ...options, transaction: options.transaction ?? turn.transaction }, callback)
+    }
+    return queue.run(async () => {
+      const mine: Turn = { transaction: null, holding: true, writer: true }
+      try {
+        return await turns.run(mine, () => begin(options, (transaction: Transaction) => {
+          mine.transaction = transaction
+          return callback(transaction)
+        }))
+      }
+      finally {
+        mine.holding = false
+      }
+    })
+  }) as Sequelize['transaction']
+
+  const query = sequelize.query.bind(sequelize) as (sql: unknown, options?: Record<string, unknown>) => Promise<unknown>
+  sequelize.query = ((sql: unknown, options?: Record<string, unknown>) => {
+    const turn = turns.getStore()
+    if (turn?.holding && turn.transaction && !isFinished(turn.transaction) && options?.transaction === undefined) {
+      return query(sql, { ...options, transaction: turn.transaction })
+    }
+    if (options?.transaction || turn?.holding || !isWriteStatement(sql)) return query(sql, options)
+    return queue.run(() => {
+      const mine: Turn = { transaction: null, holding: true }
+      return turns.run(mine, () => query(sql, options)).finally(() => {
+        mine.holding = false
+      })
+    }, { ahead: true })
+  }) as Sequelize['query']
+}
+
+async function connect(): Promise<Sequelize> {
+  const config = useRuntimeConfig()
+  const storage = resolve(config.databasePath)
+  mkdirSync(dirname(storage), { recursive: true })
+  const sequelize = new Sequelize({
+    dialect: 'sqlite',
+    dialectModule: sqlite3,
+    storage,
+    logging: false,
+    // IMMEDIATE takes the write lock at BEGIN, so two writers queue instead of deadlocking.
+    transactionType: Transaction.TYPES.IMMEDIATE,
+    retry: { max: 5, match: [/SQLITE_BUSY/] },
+  })
+  configureEachConnection(sequelize)
+  writeQueue = createWriteQueue({ max: Number(config.writeQueueMax ?? 200), waitMs: Number(config.writeQueueWaitMs ?? 10_000) })
+  queueWrites(sequelize, writeQueue)
+  await sequelize.query('PRAGMA journal_mode = WAL;')
+  initModels(sequelize)
+  schemaSettled = false
+  tableInfo.clear()
+  await migrate(sequelize)
+  schemaSettled = true
+  return sequelize
+}
+
+/** The one shared connection, created and migrated on first use. */
+export function useDb(): Promise<Sequelize> {
+  ready ??= connect().catch((error) => {
+    ready = undefined
+    throw error
+  })
+  return ready
+}
+
+/**
+ * The database once the demo clinic is seeded (when asked). Seeding runs through the same
+ * code as requests (which wait on useDb), so it starts only after useDb is ready; the
+ * start-up plugin and the readiness route wait on this.
+ */
+export function whenSeeded(): Promise<Sequelize> {
+  seeded ??= useDb().then(async (sequelize) => {
+    const config = useRuntimeConfig()
+    if (config.seedDemo) await seedDemoClinic(sequelize)
+    if (config.seedDemo && config.seedDemoActivity) await seedDemoActivity(sequelize)
+    return sequelize
+  }).catch((error) => {
+    seeded = undefined
+    throw error
+  })
+  return seeded
+}

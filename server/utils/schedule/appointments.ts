@@ -1,0 +1,122 @@
+import { createError } from 'h3'
+import { Op } from 'sequelize'
+import type { Transaction } from 'sequelize'
+import { localDate } from '#shared/schedule/rules'
+import { OPEN_APPOINTMENT_STATUSES } from '#shared/schedule/statuses'
+import type { AppointmentView, ScheduleView } from '#shared/schedule/views'
+import { Appointment, AppointmentChangeRequest } from '../../db/models'
+import type { PatientAccess } from '../auth/access'
+import type { ScheduleClock } from './clock'
+import { clinicClockTime, startOfClinicDay } from './clock'
+import { computeSchedule } from './standing'
+
+/*
+ * The appointment as the pages see it: the patient's next open appointment, its view with
+ * who confirmed or asked, the schedule page's whole answer, and the open-appointment check.
+ */
+
+/**
+ * The patient's next open appointment: the first one from the start of today (clinic
+ * time), so an appointment earlier today still shows until the injection is recorded.
+ * withChangeRequests reads his requests for it in the same query (for shapeAppointment).
+ */
+export async function nextAppointmentOf(patientId: number, clock: ScheduleClock, transaction?: Transaction, options: { withChangeRequests?: boolean } = {}) {
+  return Appointment.findOne({
+    where: { patientId, ...openFromToday(clock) },
+    include: options.withChangeRequests
+      ? [{ model: AppointmentChangeRequest, as: 'changeRequests', where: { patientId }, required: false }]
+      : [],
+    order: [['startsAt', 'ASC'], ['id', 'ASC']],
+    transaction,
+  })
+}
+
+/** Every patient's next open appointment (the due list), by patient id: one query, the rule of nextAppointmentOf. */
+export async function nextAppointmentsOf(clock: ScheduleClock): Promise<Map<number, Appointment>> {
+  const appointments = await Appointment.findAll({
+    where: openFromToday(clock),
+    attributes: ['id', 'patientId', 'startsAt', 'status'],
+    order: [['startsAt', 'DESC'], ['id', 'DESC']],
+  })
+  // Later rows overwrite earlier ones: the next appointment.
+  return new Map(appointments.map(a => [a.patientId, a]))
+}
+
+/** The open appointments from the start of today (clinic time): those a patient still has ahead. */
+export function openFromToday(clock: ScheduleClock) {
+  return {
+    status: { [Op.in]: [...OPEN_APPOINTMENT_STATUSES] },
+    startsAt: { [Op.gte]: startOfClinicDay(clock.today, clock.settings.timeZone) },
+  }
+}
+
+/** The appointment as the pages see it, with who confirmed or asked (when not the patient). */
+export async function shapeAppointment(appointment: Appointment, patientUserId: number, timeZone: string, transaction?: Transaction): Promise<AppointmentView> {
+  // patientScheduleView reads the requests with the appointment; the other callers here.
+  const preloaded = (appointment as Appointment & { changeRequests?: AppointmentChangeRequest[] }).changeRequests
+  const requests = preloaded
+    ? [...preloaded].sort((a, b) => b.createdAt.getTime() - a.createdAt.getTime() || b.id - a.id)
+    : await AppointmentChangeRequest.findAll({
+        where: { appointmentId: appointment.id, patientId: appointment.patientId },
+        order: [['createdAt', 'DESC'], ['id', 'DESC']],
+        transaction,
+      })
+  const open = requests.find(r => r.status === 'open') ?? null
+  const answered = requests.find(r => r.status === 'answered') ?? null
+  // One read for everyone named: who confirmed, who asked and who answered.
+  const by = await attributionLookup(patientUserId, [appointment.confirmedByUserId, open?.requestedByUserId, answered?.answeredByUserId])
+  const answeredBy = answered?.answeredByUserId ? by(answered.answeredByUserId) : null
+  const endsAt = new Date(appointment.startsAt.getTime() + appointment.durationMinutes * 60_000)
+  return {
+    id: appointment.id,
+    startsAt: appointment.startsAt.toISOString(),
+    endsAt: endsAt.toISOString(),
+    localDate: localDate(appointment.startsAt, timeZone),
+    localTime: clinicClockTime(appointment.startsAt, timeZone),
+    durationMinutes: appointment.durationMinutes,
+    place: appointment.place,
+    status: appointment.status,
+    confirmedAt: appointment.confirmedAt?.toISOString() ?? null,
+    confirmedBy: by(appointment.confirmedByUserId),
+    openRequest: open
+      ? { id: open.id, preferredDates: open.preferredDates, note: open.note, createdAt: open.createdAt.toISOString(), requestedBy: by(open.requestedByUserId) }
+      : null,
+    lastAnswer: answered && answered.decision && answered.answeredAt
+      ? { decision: answered.decision, note: answered.answerNote, answeredAt: answered.answeredAt.toISOString(), answeredBy: answeredBy?.name ?? '' }
+      : null,
+  }
+}
+
+/** What the person asking may do with this schedule. */
+export function scheduleAbilities(access: PatientAccess): ScheduleView['can'] {
+  const role = access.user.role
+  return {
+    respond: access.relation === 'self' || (access.relation === 'caregiver' && Boolean(access.grant?.canManageAppointments)),
+    schedule: access.relation === 'staff',
+    record: access.relation === 'staff' && (role === 'nurse' || role === 'clinician'),
+  }
+}
+
+export async function patientScheduleView(access: PatientAccess, clock: ScheduleClock): Promise<ScheduleView> {
+  const patientId = access.patient.id
+  const [schedule, next] = await Promise.all([
+    computeSchedule(patientId, clock),
+    nextAppointmentOf(patientId, clock, undefined, { withChangeRequests: true }),
+  ])
+  return {
+    patientId,
+    today: clock.today,
+    timeZone: clock.settings.timeZone,
+    ...schedule,
+    nextAppointment: next ? await shapeAppointment(next, access.patient.userId, clock.settings.timeZone) : null,
+    can: scheduleAbilities(access),
+  }
+}
+
+/** Only an open appointment that has not started yet can be confirmed or changed (409 otherwise). */
+export function assertAppointmentOpen(appointment: Appointment, now: Date) {
+  if (!(OPEN_APPOINTMENT_STATUSES as readonly string[]).includes(appointment.status)) {
+    throw createError({ statusCode: 409, message: 'errors.schedule.appointmentClosed' })
+  }
+  if (appointment.startsAt <= now) throw createError({ statusCode: 409, message: 'errors.schedule.appointmentPast' })
+}
