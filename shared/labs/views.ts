@@ -1,15 +1,8 @@
-import type { LabInterpretation, LabKind } from './lab-triage'
+import type { LabInterpretation, LabReading } from './lab-triage'
 import type { TriageLevel, TriageReason } from '../triage/rules'
 
-/** One lab or ECG result as it leaves the server, with what it means. */
-export interface LabResultView {
-  id: number
-  kind: LabKind
-  takenOn: string
-  /** As entered: testosterone in its unit, PSA ng/mL, HbA1c %, QT ms (QTc). */
-  value: number
-  unit: string
-  heartRate: number | null
+/** One lab or ECG result as it leaves the server (the reading as entered), with what it means. */
+export interface LabResultView extends LabReading {
   note: string | null
   enteredBy: string
   createdAt: string

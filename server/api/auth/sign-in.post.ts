@@ -29,7 +29,7 @@ export default defineEventHandler(async (event) => {
   const secondFactor = secondFactorStage(user)
   if (secondFactor) {
     await startSecondFactor(event, user)
-    return { user: sessionUserOf(user as User & { patient?: Patient | null }), secondFactor }
+    return { user: sessionUserOf(user), secondFactor }
   }
-  return { user: await completeSignIn(event, user as User & { patient?: Patient | null }), secondFactor: null }
+  return { user: await completeSignIn(event, user), secondFactor: null }
 })

@@ -18,7 +18,7 @@ export default defineEventHandler(async (event) => {
   })
   return grants.map(grant => ({
     patientId: grant.patientId,
-    name: (grant as CareGrant & { patient?: Patient }).patient?.user?.name ?? '',
+    name: grant.patient?.user?.name ?? '',
     relation: 'caregiver' as const,
     canLogDiary: grant.canLogDiary,
     canManageAppointments: grant.canManageAppointments,

@@ -4,6 +4,7 @@ import type { ChangeDecision, ChangeRequestStatus } from '#shared/schedule/statu
 import type { Appointment } from './appointment'
 import type { Patient } from './patient'
 import type { User } from './user'
+import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
 
 /** A patient's (or caregiver's) request for another appointment time, and the answer. */
 export class AppointmentChangeRequest extends Model<InferAttributes<AppointmentChangeRequest>, InferCreationAttributes<AppointmentChangeRequest>> {
@@ -27,7 +28,7 @@ export class AppointmentChangeRequest extends Model<InferAttributes<AppointmentC
 
   static initModel(sequelize: Sequelize) {
     AppointmentChangeRequest.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       preferredDates: { type: DataTypes.JSON, allowNull: false, field: 'preferred_dates' },
       note: { type: DataTypes.TEXT, allowNull: true },
       status: { type: DataTypes.STRING, allowNull: false, defaultValue: 'open' },
@@ -35,8 +36,8 @@ export class AppointmentChangeRequest extends Model<InferAttributes<AppointmentC
       answerNote: { type: DataTypes.TEXT, allowNull: true, field: 'answer_note' },
       answeredAt: { type: DataTypes.DATE, allowNull: true, field: 'answered_at' },
       requestId: { type: DataTypes.STRING, allowNull: true, field: 'request_id' },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
-      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+      ...createdAtColumn(),
+      ...updatedAtColumn(),
     }, { sequelize, tableName: 'appointment_change_requests' })
   }
 }

@@ -3,6 +3,8 @@ import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttrib
 import type { AppointmentStatus } from '#shared/schedule/statuses'
 import type { Patient } from './patient'
 import type { User } from './user'
+import type { AppointmentChangeRequest } from './appointment-change-request'
+import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
 
 /**
  * An injection appointment, stored as a UTC instant and shown in the clinic's time zone.
@@ -22,18 +24,20 @@ export class Appointment extends Model<InferAttributes<Appointment>, InferCreati
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
   declare confirmedBy?: NonAttribute<User | null>
+  declare patient?: NonAttribute<Patient>
+  declare changeRequests?: NonAttribute<AppointmentChangeRequest[]>
 
   static initModel(sequelize: Sequelize) {
     Appointment.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       startsAt: { type: DataTypes.DATE, allowNull: false, field: 'starts_at' },
       durationMinutes: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 30, field: 'duration_minutes' },
       place: { type: DataTypes.STRING, allowNull: false },
       status: { type: DataTypes.STRING, allowNull: false, defaultValue: 'booked' },
       sequence: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       confirmedAt: { type: DataTypes.DATE, allowNull: true, field: 'confirmed_at' },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
-      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+      ...createdAtColumn(),
+      ...updatedAtColumn(),
     }, { sequelize, tableName: 'appointments' })
   }
 }

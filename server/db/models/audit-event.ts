@@ -1,5 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+import { idColumn } from './columns'
 
 /** One line of the audit trail: who saw or changed what, when and from where. */
 export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreationAttributes<AuditEvent>> {
@@ -15,7 +16,7 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
 
   static initModel(sequelize: Sequelize) {
     AuditEvent.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       actorUserId: { type: DataTypes.INTEGER, allowNull: true, field: 'actor_user_id' },
       actorRole: { type: DataTypes.STRING, allowNull: true, field: 'actor_role' },
       patientId: { type: DataTypes.INTEGER, allowNull: true, field: 'patient_id' },

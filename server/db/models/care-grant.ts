@@ -2,6 +2,7 @@ import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
 import type { Patient } from './patient'
 import type { User } from './user'
+import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
 
 /** A patient's permission for one caregiver (the care circle). Viewing is implied. */
 export class CareGrant extends Model<InferAttributes<CareGrant>, InferCreationAttributes<CareGrant>> {
@@ -20,15 +21,16 @@ export class CareGrant extends Model<InferAttributes<CareGrant>, InferCreationAt
   declare updatedAt: CreationOptional<Date>
   declare caregiver?: NonAttribute<User>
   declare grantedBy?: NonAttribute<User>
+  declare patient?: NonAttribute<Patient>
 
   static initModel(sequelize: Sequelize) {
     CareGrant.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       canLogDiary: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false, field: 'can_log_diary' },
       canManageAppointments: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false, field: 'can_manage_appointments' },
       revokedAt: { type: DataTypes.DATE, allowNull: true, field: 'revoked_at' },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
-      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+      ...createdAtColumn(),
+      ...updatedAtColumn(),
     }, { sequelize, tableName: 'care_grants' })
   }
 }

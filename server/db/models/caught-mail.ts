@@ -1,5 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+import { idColumn } from './columns'
 
 /** A message received by the local mail catcher (development and demo only). */
 export class CaughtMail extends Model<InferAttributes<CaughtMail>, InferCreationAttributes<CaughtMail>> {
@@ -12,7 +13,7 @@ export class CaughtMail extends Model<InferAttributes<CaughtMail>, InferCreation
 
   static initModel(sequelize: Sequelize) {
     CaughtMail.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       from: { type: DataTypes.STRING, allowNull: false, field: 'from_address' },
       to: { type: DataTypes.STRING, allowNull: false, field: 'to_address' },
       subject: { type: DataTypes.STRING, allowNull: false },

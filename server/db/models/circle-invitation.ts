@@ -4,6 +4,7 @@ import type { Language } from '#shared/auth/roles'
 import type { CareGrant } from './care-grant'
 import type { Patient } from './patient'
 import type { User } from './user'
+import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
 
 export const INVITATION_STATUSES = ['pending', 'accepted', 'cancelled'] as const
 export type InvitationStatus = (typeof INVITATION_STATUSES)[number]
@@ -35,7 +36,7 @@ export class CircleInvitation extends Model<InferAttributes<CircleInvitation>, I
 
   static initModel(sequelize: Sequelize) {
     CircleInvitation.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       email: { type: DataTypes.STRING, allowNull: false },
       name: { type: DataTypes.STRING, allowNull: false },
       language: { type: DataTypes.STRING, allowNull: false, defaultValue: 'en' },
@@ -45,8 +46,8 @@ export class CircleInvitation extends Model<InferAttributes<CircleInvitation>, I
       expiresAt: { type: DataTypes.DATE, allowNull: false, field: 'expires_at' },
       closedAt: { type: DataTypes.DATE, allowNull: true, field: 'closed_at' },
       requestId: { type: DataTypes.STRING, allowNull: true, field: 'request_id' },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
-      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+      ...createdAtColumn(),
+      ...updatedAtColumn(),
     }, { sequelize, tableName: 'circle_invitations' })
   }
 }

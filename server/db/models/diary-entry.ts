@@ -4,6 +4,8 @@ import type { TriageLevel, TriageReason } from '#shared/triage/rules'
 import type { DiaryEntryInput } from '#shared/diary/schemas'
 import type { Patient } from './patient'
 import type { User } from './user'
+import type { TriageItem } from './triage-item'
+import { idColumn } from './columns'
 
 /** One weekly diary entry with the triage the server worked out when it arrived. */
 export class DiaryEntry extends Model<InferAttributes<DiaryEntry>, InferCreationAttributes<DiaryEntry>> {
@@ -25,10 +27,11 @@ export class DiaryEntry extends Model<InferAttributes<DiaryEntry>, InferCreation
   /** False while only a right-now report has arrived; the rest of the diary completes it. */
   declare complete: CreationOptional<boolean>
   declare enteredBy?: NonAttribute<User>
+  declare triageItem?: NonAttribute<TriageItem | null>
 
   static initModel(sequelize: Sequelize) {
     DiaryEntry.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       answers: { type: DataTypes.JSON, allowNull: false },
       level: { type: DataTypes.STRING, allowNull: false },
       reasons: { type: DataTypes.JSON, allowNull: false },

@@ -4,6 +4,7 @@ import type { SiteCode } from '#shared/schedule/rules'
 import type { Patient } from './patient'
 import type { Regimen } from './regimen'
 import type { User } from './user'
+import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
 
 /**
  * One depot injection given. givenAt is the instant; givenOn is its calendar date in the
@@ -27,15 +28,15 @@ export class Injection extends Model<InferAttributes<Injection>, InferCreationAt
 
   static initModel(sequelize: Sequelize) {
     Injection.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       givenAt: { type: DataTypes.DATE, allowNull: false, field: 'given_at' },
       givenOn: { type: DataTypes.DATEONLY, allowNull: false, field: 'given_on' },
       site: { type: DataTypes.STRING, allowNull: false },
       lotNumber: { type: DataTypes.STRING, allowNull: false, field: 'lot_number' },
       lotExpiresOn: { type: DataTypes.DATEONLY, allowNull: false, field: 'lot_expires_on' },
       note: { type: DataTypes.TEXT, allowNull: true },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
-      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+      ...createdAtColumn(),
+      ...updatedAtColumn(),
     }, { sequelize, tableName: 'injections' })
   }
 }

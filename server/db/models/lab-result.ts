@@ -3,6 +3,7 @@ import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttrib
 import type { LabKind } from '#shared/labs/lab-triage'
 import type { Patient } from './patient'
 import type { User } from './user'
+import { createdAtColumn, idColumn } from './columns'
 
 /**
  * One lab or ECG result entered by staff. value is in unit: testosterone ng/dL or nmol/L
@@ -23,14 +24,14 @@ export class LabResult extends Model<InferAttributes<LabResult>, InferCreationAt
 
   static initModel(sequelize: Sequelize) {
     LabResult.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       kind: { type: DataTypes.STRING, allowNull: false },
       takenOn: { type: DataTypes.DATEONLY, allowNull: false, field: 'taken_on' },
       value: { type: DataTypes.DOUBLE, allowNull: false },
       unit: { type: DataTypes.STRING, allowNull: false },
       heartRate: { type: DataTypes.DOUBLE, allowNull: true, field: 'heart_rate' },
       note: { type: DataTypes.TEXT, allowNull: true },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
+      ...createdAtColumn(),
     }, { sequelize, tableName: 'lab_results', updatedAt: false })
   }
 }

@@ -1,5 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+import { createdAtColumn, idColumn } from './columns'
 
 export const TOKEN_PURPOSES = ['invite', 'reset', 'circle-invite'] as const
 export type TokenPurpose = (typeof TOKEN_PURPOSES)[number]
@@ -17,14 +18,14 @@ export class OneTimeToken extends Model<InferAttributes<OneTimeToken>, InferCrea
 
   static initModel(sequelize: Sequelize) {
     OneTimeToken.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       userId: { type: DataTypes.INTEGER, allowNull: true, field: 'user_id' },
       purpose: { type: DataTypes.STRING, allowNull: false },
       tokenHash: { type: DataTypes.STRING, allowNull: false, unique: true, field: 'token_hash' },
       data: { type: DataTypes.JSON, allowNull: false, defaultValue: {} },
       expiresAt: { type: DataTypes.DATE, allowNull: false, field: 'expires_at' },
       usedAt: { type: DataTypes.DATE, allowNull: true, field: 'used_at' },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
+      ...createdAtColumn(),
     }, { sequelize, tableName: 'one_time_tokens', updatedAt: false })
   }
 }

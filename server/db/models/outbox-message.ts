@@ -1,5 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
 
 export interface OutboxAttachment {
   filename: string
@@ -26,7 +27,7 @@ export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCr
 
   static initModel(sequelize: Sequelize) {
     OutboxMessage.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       to: { type: DataTypes.STRING, allowNull: false, field: 'to_address' },
       subject: { type: DataTypes.STRING, allowNull: false },
       text: { type: DataTypes.TEXT, allowNull: false },
@@ -38,8 +39,8 @@ export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCr
       nextAttemptAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW, field: 'next_attempt_at' },
       lastError: { type: DataTypes.TEXT, allowNull: true, field: 'last_error' },
       sentAt: { type: DataTypes.DATE, allowNull: true, field: 'sent_at' },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
-      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+      ...createdAtColumn(),
+      ...updatedAtColumn(),
     }, { sequelize, tableName: 'outbox_messages' })
   }
 }

@@ -3,6 +3,7 @@ import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttrib
 import type { Patient } from './patient'
 import type { Regimen } from './regimen'
 import type { User } from './user'
+import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
 
 /** Which regimen a patient is on, from when; the current one has no end date. */
 export class PatientRegimen extends Model<InferAttributes<PatientRegimen>, InferCreationAttributes<PatientRegimen>> {
@@ -18,12 +19,12 @@ export class PatientRegimen extends Model<InferAttributes<PatientRegimen>, Infer
 
   static initModel(sequelize: Sequelize) {
     PatientRegimen.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       startsOn: { type: DataTypes.DATEONLY, allowNull: false, field: 'starts_on' },
       endsOn: { type: DataTypes.DATEONLY, allowNull: true, field: 'ends_on' },
       setByUserId: { type: DataTypes.INTEGER, allowNull: true, field: 'set_by_user_id' },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
-      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+      ...createdAtColumn(),
+      ...updatedAtColumn(),
     }, { sequelize, tableName: 'patient_regimens' })
   }
 }

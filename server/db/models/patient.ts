@@ -2,6 +2,7 @@ import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
 import type { ContactPreference, PatientPhone } from '#shared/contact/schemas'
 import type { User } from './user'
+import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
 
 export class Patient extends Model<InferAttributes<Patient>, InferCreationAttributes<Patient>> {
   declare id: CreationOptional<number>
@@ -19,15 +20,15 @@ export class Patient extends Model<InferAttributes<Patient>, InferCreationAttrib
 
   static initModel(sequelize: Sequelize) {
     Patient.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       clinicNumber: { type: DataTypes.STRING, allowNull: false, unique: true, field: 'clinic_number' },
       dateOfBirth: { type: DataTypes.DATEONLY, allowNull: false, field: 'date_of_birth' },
       riskProfile: { type: DataTypes.JSON, allowNull: true, field: 'risk_profile' },
       phones: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },
       bestTimesToCall: { type: DataTypes.STRING(200), allowNull: false, defaultValue: '', field: 'best_times_to_call' },
       preferredContact: { type: DataTypes.STRING, allowNull: false, defaultValue: 'phone', field: 'preferred_contact' },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
-      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+      ...createdAtColumn(),
+      ...updatedAtColumn(),
     }, { sequelize, tableName: 'patients' })
   }
 }

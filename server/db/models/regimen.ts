@@ -1,5 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
 
 /** A depot regimen: a generic name and the days between injections. Data, not code. */
 export class Regimen extends Model<InferAttributes<Regimen>, InferCreationAttributes<Regimen>> {
@@ -12,12 +13,12 @@ export class Regimen extends Model<InferAttributes<Regimen>, InferCreationAttrib
 
   static initModel(sequelize: Sequelize) {
     Regimen.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       name: { type: DataTypes.STRING, allowNull: false, unique: true },
       intervalDays: { type: DataTypes.INTEGER, allowNull: false, field: 'interval_days' },
       active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
-      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+      ...createdAtColumn(),
+      ...updatedAtColumn(),
     }, { sequelize, tableName: 'regimens' })
   }
 }

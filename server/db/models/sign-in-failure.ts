@@ -1,5 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+import { idColumn } from './columns'
 
 /** A failed sign-in, kept in the database so the lockout survives a restart. */
 export class SignInFailure extends Model<InferAttributes<SignInFailure>, InferCreationAttributes<SignInFailure>> {
@@ -10,7 +11,7 @@ export class SignInFailure extends Model<InferAttributes<SignInFailure>, InferCr
 
   static initModel(sequelize: Sequelize) {
     SignInFailure.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       accountKey: { type: DataTypes.STRING, allowNull: false, field: 'account_key' },
       ipKey: { type: DataTypes.STRING, allowNull: true, field: 'ip_key' },
       at: { type: DataTypes.DATE, allowNull: false },

@@ -1,5 +1,6 @@
 import { DataTypes, Model } from 'sequelize'
 import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+import { createdAtColumn, idColumn } from './columns'
 
 /** One of a user's ten one-use recovery codes (salted SHA-256; the code itself is shown once). */
 export class TotpRecoveryCode extends Model<InferAttributes<TotpRecoveryCode>, InferCreationAttributes<TotpRecoveryCode>> {
@@ -11,11 +12,11 @@ export class TotpRecoveryCode extends Model<InferAttributes<TotpRecoveryCode>, I
 
   static initModel(sequelize: Sequelize) {
     TotpRecoveryCode.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       userId: { type: DataTypes.INTEGER, allowNull: false, field: 'user_id' },
       codeHash: { type: DataTypes.STRING, allowNull: false, field: 'code_hash' },
       usedAt: { type: DataTypes.DATE, allowNull: true, field: 'used_at' },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
+      ...createdAtColumn(),
     }, { sequelize, tableName: 'totp_recovery_codes', updatedAt: false })
   }
 }

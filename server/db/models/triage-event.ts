@@ -3,6 +3,7 @@ import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttrib
 import type { TriageEventType } from '#shared/triage/schemas'
 import type { TriageItem } from './triage-item'
 import type { User } from './user'
+import { idColumn } from './columns'
 
 /** One line of a triage item's timeline. actorUserId is null for the system. */
 export class TriageEvent extends Model<InferAttributes<TriageEvent>, InferCreationAttributes<TriageEvent>> {
@@ -17,7 +18,7 @@ export class TriageEvent extends Model<InferAttributes<TriageEvent>, InferCreati
 
   static initModel(sequelize: Sequelize) {
     TriageEvent.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       type: { type: DataTypes.STRING, allowNull: false },
       note: { type: DataTypes.TEXT, allowNull: true },
       data: { type: DataTypes.JSON, allowNull: false, defaultValue: {} },

@@ -5,6 +5,7 @@ import type { Disposition, TriageItemStatus, TriageSource } from '#shared/triage
 import type { DiaryEntry } from './diary-entry'
 import type { Patient } from './patient'
 import type { User } from './user'
+import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
 
 /** One piece of work in the nurses' triage queue. */
 export class TriageItem extends Model<InferAttributes<TriageItem>, InferCreationAttributes<TriageItem>> {
@@ -29,7 +30,7 @@ export class TriageItem extends Model<InferAttributes<TriageItem>, InferCreation
 
   static initModel(sequelize: Sequelize) {
     TriageItem.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       source: { type: DataTypes.STRING, allowNull: false },
       sourceKey: { type: DataTypes.STRING, allowNull: false, unique: true, field: 'source_key' },
       level: { type: DataTypes.STRING, allowNull: false },
@@ -39,8 +40,8 @@ export class TriageItem extends Model<InferAttributes<TriageItem>, InferCreation
       disposition: { type: DataTypes.STRING, allowNull: true },
       escalatedAt: { type: DataTypes.DATE, allowNull: true, field: 'escalated_at' },
       closedAt: { type: DataTypes.DATE, allowNull: true, field: 'closed_at' },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
-      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+      ...createdAtColumn(),
+      ...updatedAtColumn(),
     }, { sequelize, tableName: 'triage_items' })
   }
 }

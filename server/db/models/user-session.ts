@@ -1,5 +1,7 @@
 import { DataTypes, Model } from 'sequelize'
-import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+import type { CreationOptional, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
+import type { User } from './user'
+import { createdAtColumn } from './columns'
 
 export const SESSION_END_REASONS = ['sign-out', 'sign-out-everywhere', 'password-changed', 'deactivated', 'idle'] as const
 export type SessionEndReason = (typeof SESSION_END_REASONS)[number]
@@ -12,12 +14,13 @@ export class UserSession extends Model<InferAttributes<UserSession>, InferCreati
   declare endedAt: Date | null
   declare endedReason: SessionEndReason | null
   declare userAgent: string | null
+  declare user?: NonAttribute<User>
 
   static initModel(sequelize: Sequelize) {
     UserSession.init({
       id: { type: DataTypes.STRING, primaryKey: true },
       userId: { type: DataTypes.INTEGER, allowNull: false, field: 'user_id' },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
+      ...createdAtColumn(),
       endedAt: { type: DataTypes.DATE, allowNull: true, field: 'ended_at' },
       endedReason: { type: DataTypes.STRING, allowNull: true, field: 'ended_reason' },
       userAgent: { type: DataTypes.STRING, allowNull: true, field: 'user_agent' },

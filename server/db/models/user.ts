@@ -1,6 +1,8 @@
 import { DataTypes, Model } from 'sequelize'
-import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
+import type { CreationOptional, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
 import type { Language, Role } from '#shared/auth/roles'
+import type { Patient } from './patient'
+import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
 
 export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
   declare id: CreationOptional<number>
@@ -21,10 +23,11 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare totpFailedAt: CreationOptional<Date | null>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
+  declare patient?: NonAttribute<Patient | null>
 
   static initModel(sequelize: Sequelize) {
     User.init({
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+      ...idColumn(),
       email: { type: DataTypes.STRING, allowNull: false, unique: true },
       passwordHash: { type: DataTypes.STRING, allowNull: true, field: 'password_hash' },
       role: { type: DataTypes.STRING, allowNull: false },
@@ -38,8 +41,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
       totpLastStep: { type: DataTypes.INTEGER, allowNull: true, field: 'totp_last_step' },
       totpFailures: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0, field: 'totp_failures' },
       totpFailedAt: { type: DataTypes.DATE, allowNull: true, field: 'totp_failed_at' },
-      createdAt: { type: DataTypes.DATE, field: 'created_at' },
-      updatedAt: { type: DataTypes.DATE, field: 'updated_at' },
+      ...createdAtColumn(),
+      ...updatedAtColumn(),
     }, { sequelize, tableName: 'users' })
   }
 }

@@ -25,7 +25,7 @@ export default defineTask({
       order: [['startsAt', 'ASC']],
     })
     for (const appointment of appointments) {
-      const user = (appointment as Appointment & { patient?: Patient }).patient?.user
+      const user = appointment.patient?.user
       if (!user) continue
       const daysUntil = daysBetween(clock.today, localDate(appointment.startsAt, tz))
       const lead = reminderLead(daysUntil, clock.settings.reminderLeadDays)

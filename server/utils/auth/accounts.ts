@@ -20,7 +20,7 @@ export async function setAccountActive(event: H3Event, active: boolean) {
     const [changed] = await User.update({ active }, { where: { id: user.id, active: !active }, transaction })
     if (!changed) throw createError({ statusCode: 409, message: active ? 'errors.accountAlreadyActive' : 'errors.accountAlreadyInactive' })
     const ended = active ? 0 : await endSessions(user.id, 'deactivated', { transaction })
-    const patientId = (user as User & { patient?: Patient | null }).patient?.id ?? null
+    const patientId = user.patient?.id ?? null
     await recordAudit(event, { actor: admin, patientId, action: active ? 'user.reactivate' : 'user.deactivate', resource: `user:${user.id}` }, transaction)
     return { id: user.id, active, sessionsEnded: ended }
   })

@@ -88,8 +88,7 @@ export function idleMinutesFor(role: string, setting: { patient: unknown, staff:
   return staff ? DEFAULT_SETTINGS.idleMinutesStaff : DEFAULT_SETTINGS.idleMinutesPatient
 }
 
-type LiveUser = User & { patient?: Patient | null }
-interface SessionScope { event: H3Event, checks: Map<string, Promise<LiveUser>> }
+interface SessionScope { event: H3Event, checks: Map<string, Promise<User>> }
 const scopes = new AsyncLocalStorage<SessionScope>()
 
 /** Runs a request from the browser in its own scope; the internal calls it makes join it. */
@@ -107,7 +106,7 @@ async function refuse(event: H3Event, message: 'errors.signedOut' | 'errors.sess
  * patient record and the idle settings in one query; otherwise the cookie is cleared and
  * the answer is 401 (errors.sessionIdle when it ended for idleness, else errors.signedOut).
  */
-export function requireLiveSession(event: H3Event, session: SealedSession & { user: SessionUser }): Promise<LiveUser> {
+export function requireLiveSession(event: H3Event, session: SealedSession & { user: SessionUser }): Promise<User> {
   const scope = scopes.getStore()
   const sessionId = session.secure?.sessionId
   if (!scope || !sessionId) return checkSession(event, session)
@@ -119,7 +118,7 @@ export function requireLiveSession(event: H3Event, session: SealedSession & { us
   return check
 }
 
-async function checkSession(event: H3Event, session: SealedSession & { user: SessionUser }): Promise<LiveUser> {
+async function checkSession(event: H3Event, session: SealedSession & { user: SessionUser }): Promise<User> {
   const sessionId = session.secure?.sessionId
   if (!sessionId) return refuse(event, 'errors.signedOut')
   await useDb()
@@ -132,7 +131,7 @@ async function checkSession(event: H3Event, session: SealedSession & { user: Ses
       ],
     },
   })
-  const user = (row as (UserSession & { user?: LiveUser }) | null)?.user
+  const user = row?.user
   if (!row || !user || row.userId !== session.user.id) return refuse(event, 'errors.signedOut')
   if (row.endedAt) return refuse(event, row.endedReason === 'idle' ? 'errors.sessionIdle' : 'errors.signedOut')
   if (!user.active) {

@@ -194,7 +194,7 @@ export function newTotpSecret(): string {
  * place a signed-in session is made (sign-in.post.ts and the second-factor routes), with
  * its row in user_sessions (server/utils/auth/sessions.ts).
  */
-export async function completeSignIn(event: H3Event, user: User & { patient?: Patient | null }): Promise<SessionUser> {
+export async function completeSignIn(event: H3Event, user: User): Promise<SessionUser> {
   const sessionUser = sessionUserOf(user)
   await startSession(event, sessionUser)
   return sessionUser
@@ -207,7 +207,7 @@ export async function startSecondFactor(event: H3Event, user: User) {
 }
 
 /** The user of a half-signed-in session, or 401 errors.signedOut when there is none, it is too old or the account is off. */
-export async function requirePendingUser(event: H3Event): Promise<User & { patient?: Patient | null }> {
+export async function requirePendingUser(event: H3Event): Promise<User> {
   const session = await getUserSession(event)
   const pending = session.secure?.secondFactor
   if (session.user || !pending || Date.now() - pending.at > PENDING_TTL_MS) {
@@ -219,19 +219,20 @@ export async function requirePendingUser(event: H3Event): Promise<User & { patie
     await clearUserSession(event)
     throw createError({ statusCode: 401, message: 'errors.signedOut' })
   }
-  return user as User & { patient?: Patient | null }
+  return user
 }
 
 /**
  * Who is enrolling: a half-signed-in user whose role needs a second factor, or a signed-in
  * user (a patient or caregiver turning it on from his account page).
  */
-export async function requireEnrollingUser(event: H3Event): Promise<{ user: User & { patient?: Patient | null }, pending: boolean }> {
+export async function requireEnrollingUser(event: H3Event): Promise<{ user: User, pending: boolean }> {
   const session = await getUserSession(event)
   if (session.user) {
     const signedIn = await requireActiveUser(event)
     const user = await User.findByPk(signedIn.id, { include: [{ model: Patient, as: 'patient' }] })
-    return { user: user as User & { patient?: Patient | null }, pending: false }
+    if (!user) throw createError({ statusCode: 401, message: 'errors.signedOut' })
+    return { user, pending: false }
   }
   return { user: await requirePendingUser(event), pending: true }
 }

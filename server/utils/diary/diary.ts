@@ -242,7 +242,7 @@ export async function findDiaryEntryView(entryId: number, patient: Patient): Pro
     ],
   })
   if (!entry) return null
-  return diaryView(entry, attributionOf(entry.enteredBy!, patient.userId), (entry as DiaryEntry & { triageItem?: TriageItem | null }).triageItem ?? null)
+  return diaryView(entry, attributionOf(entry.enteredBy!, patient.userId), entry.triageItem ?? null)
 }
 
 /** The answer of the diary routes: the entry as stored now. */
@@ -287,8 +287,8 @@ export async function sendDiaryReminders(now: Date): Promise<number> {
   const lastByPatient = new Map(lastEntries.map(row => [row.patientId, new Date(row.last)]))
   let queued = 0
   for (const patient of patients) {
-    const user = (patient as Patient & { user: User }).user
-    if (!user.passwordHash) continue
+    const user = patient.user
+    if (!user?.passwordHash) continue
     const since = lastByPatient.get(patient.id) ?? patient.createdAt
     const weeks = Math.floor((now.getTime() - since.getTime()) / WEEK_MS)
     if (weeks < 1) continue

@@ -53,7 +53,7 @@ export function openFromToday(clock: ScheduleClock) {
 /** The appointment as the pages see it, with who confirmed or asked (when not the patient). */
 export async function shapeAppointment(appointment: Appointment, patientUserId: number, timeZone: string, transaction?: Transaction): Promise<AppointmentView> {
   // patientScheduleView reads the requests with the appointment; the other callers here.
-  const preloaded = (appointment as Appointment & { changeRequests?: AppointmentChangeRequest[] }).changeRequests
+  const preloaded = appointment.changeRequests
   const requests = preloaded
     ? [...preloaded].sort((a, b) => b.createdAt.getTime() - a.createdAt.getTime() || b.id - a.id)
     : await AppointmentChangeRequest.findAll({
@@ -87,13 +87,12 @@ export async function shapeAppointment(appointment: Appointment, patientUserId: 
   }
 }
 
-/** What the person asking may do with this schedule. */
+/** What the person asking may do with this schedule: the access policy's answers, nothing rebuilt. */
 export function scheduleAbilities(access: PatientAccess): ScheduleView['can'] {
-  const role = access.user.role
   return {
-    respond: access.relation === 'self' || (access.relation === 'caregiver' && Boolean(access.grant?.canManageAppointments)),
-    schedule: access.relation === 'staff',
-    record: access.relation === 'staff' && (role === 'nurse' || role === 'clinician'),
+    respond: access.allows('appointment.respond'),
+    schedule: access.allows('appointment.schedule'),
+    record: access.allows('injection.record'),
   }
 }
 

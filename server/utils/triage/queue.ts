@@ -43,26 +43,30 @@ export async function alertStaff(item: TriageItem, template: 'triageAlert' | 'tr
   }
 }
 
+/** What raised a level, from the diary or a lab result: the rules' answer and when it came. */
+export interface TriageFinding { patientId: number, level: TriageLevel, reasons: TriageReason[], respondBy: Date | null, at: Date }
+
+/** Where an item comes from: its source and a key that names the record ("diary:12", "lab:7"). */
+export interface TriageOrigin { source: TriageSource, sourceKey: string, diaryEntryId?: number }
+
 /**
  * Opens a queue item inside the caller's transaction (with the change that caused it) and
- * alerts the nurses on duty for urgent and emergency items. A second call for the same
- * source key does nothing: each source opens at most one item.
+ * alerts the nurses on duty for urgent and emergency items. A level below routine opens
+ * nothing; a second call for the same source key does nothing: each source opens at most
+ * one item.
  */
-export async function openTriageItem(
-  input: { patientId: number, source: TriageSource, sourceKey: string, diaryEntryId?: number | null, level: TriageLevel, reasons: TriageReason[], respondBy: Date | null, at?: Date },
-  transaction: Transaction,
-): Promise<TriageItem | null> {
-  if (!QUEUED.includes(input.level)) return null
+export async function openTriageItem({ source, sourceKey, diaryEntryId }: TriageOrigin, finding: TriageFinding, transaction: Transaction): Promise<TriageItem | null> {
+  if (!QUEUED.includes(finding.level)) return null
   const [item, created] = await TriageItem.findOrCreate({
-    where: { sourceKey: input.sourceKey },
+    where: { sourceKey },
     defaults: {
-      patientId: input.patientId,
-      source: input.source,
-      sourceKey: input.sourceKey,
-      diaryEntryId: input.diaryEntryId ?? null,
-      level: input.level,
-      reasons: input.reasons,
-      respondBy: input.respondBy,
+      patientId: finding.patientId,
+      source,
+      sourceKey,
+      diaryEntryId: diaryEntryId ?? null,
+      level: finding.level,
+      reasons: finding.reasons,
+      respondBy: finding.respondBy,
       assigneeUserId: null,
       disposition: null,
       escalatedAt: null,
@@ -71,7 +75,7 @@ export async function openTriageItem(
     transaction,
   })
   if (!created) return null
-  await TriageEvent.create({ itemId: item.id, actorUserId: null, type: 'created', note: null, at: input.at ?? new Date() }, { transaction })
+  await TriageEvent.create({ itemId: item.id, actorUserId: null, type: 'created', note: null, at: finding.at }, { transaction })
   if (ALERTED.includes(item.level)) {
     const settings = await getSettings(transaction)
     await alertStaff(item, 'triageAlert', settings.nursesOnDuty, transaction)
@@ -80,16 +84,8 @@ export async function openTriageItem(
 }
 
 export function openTriageItemForEntry(entry: DiaryEntry, transaction: Transaction) {
-  return openTriageItem({
-    patientId: entry.patientId,
-    source: 'diary',
-    sourceKey: `diary:${entry.id}`,
-    diaryEntryId: entry.id,
-    level: entry.level,
-    reasons: entry.reasons,
-    respondBy: entry.respondBy,
-    at: entry.submittedAt,
-  }, transaction)
+  const origin = { source: 'diary' as const, sourceKey: `diary:${entry.id}`, diaryEntryId: entry.id }
+  return openTriageItem(origin, { ...entry.get({ plain: true }), at: entry.submittedAt }, transaction)
 }
 
 /**
@@ -132,10 +128,8 @@ export async function openOverdueInjectionItems(now: Date): Promise<number> {
   const known = new Set(existing.map(i => i.sourceKey))
   let opened = 0
   for (const { patientId, sourceKey } of overdue.filter(o => !known.has(o.sourceKey))) {
-    const item = await sequelize.transaction(transaction => openTriageItem({
+    const item = await sequelize.transaction(transaction => openTriageItem({ source: 'overdue-injection', sourceKey }, {
       patientId,
-      source: 'overdue-injection',
-      sourceKey,
       level: 'urgent',
       reasons: [{
         rule: 'injection-overdue',

@@ -6,7 +6,7 @@ import { DiaryEntry, Patient, TriageEvent, TriageItem, User } from '../../db/mod
 
 /** A queue row: enough to choose what to open next; the name only ever goes to staff. */
 export function triageRow(item: TriageItem, now: Date): TriageRowView {
-  const patient = item.patient as (Patient & { user?: User }) | undefined
+  const patient = item.patient
   return {
     id: item.id,
     reference: itemReference(item.id),
@@ -30,7 +30,7 @@ export function triageRow(item: TriageItem, now: Date): TriageRowView {
 export async function triageDetail(item: TriageItem, now: Date): Promise<TriageDetailView> {
   const clock = await scheduleClock(now)
   const [patient, assignee, events, trend, caregivers, openItems, { flareWatch, ...schedule }] = await Promise.all([
-    Patient.findByPk(item.patientId, { include: [{ model: User, as: 'user' }] }) as Promise<Patient & { user?: User }>,
+    Patient.findByPk(item.patientId, { include: [{ model: User, as: 'user' }], rejectOnEmpty: true }),
     item.assigneeUserId ? User.findByPk(item.assigneeUserId, { attributes: ['id', 'name'] }) : null,
     TriageEvent.findAll({
       where: { itemId: item.id },

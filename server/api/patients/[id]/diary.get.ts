@@ -27,7 +27,7 @@ export default defineEventHandler(async (event) => {
     pageSize,
     total: count,
     entries: rows.map((entry) => {
-      const item = (entry as DiaryEntry & { triageItem?: TriageItem | null }).triageItem
+      const item = entry.triageItem
       return diaryView(entry, attributionOf(entry.enteredBy!, patient.userId), item ?? null)
     }),
   }

@@ -28,17 +28,8 @@ export default defineEventHandler(async (event) => {
     }, { transaction })
     const { results, context } = await labContextOf(patient.id, transaction)
     const result = labResultView(results.find(r => r.id === created.id)!, context)
-    if (result.level !== 'none') {
-      await openTriageItem({
-        patientId: patient.id,
-        source: 'lab',
-        sourceKey: `lab:${created.id}`,
-        level: result.level,
-        reasons: result.reasons,
-        respondBy: respondBy(result.level, now, { urgentHours: settings.urgentResponseHours, routineWorkingDays: settings.routineResponseWorkingDays }, settings.timeZone),
-        at: now,
-      }, transaction)
-    }
+    const deadlines = { urgentHours: settings.urgentResponseHours, routineWorkingDays: settings.routineResponseWorkingDays }
+    await openTriageItem({ source: 'lab', sourceKey: `lab:${created.id}` }, { patientId: patient.id, ...result, respondBy: respondBy(result.level, now, deadlines, settings.timeZone), at: now }, transaction)
     return result
   })
   setResponseStatus(event, 201)
