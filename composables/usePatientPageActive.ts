@@ -1,0 +1,28 @@
+import type { AsyncDataRequestStatus } from '#app'
+import type { Ref } from 'vue'
+
+/**
+ * A patient's own page (he or a caregiver helping him): its title (the string `titleKey`, or
+ * for a caregiver `caregiverTitleKey` with the man's name when given), set as the page's, and whose
+ * record is open, the fetch options for one part of it (keyed by his id, fetched only when
+ * there is someone), and `gate(status)` for AppLoadState (v-bind): "nobody to show" without
+ * a record, "loading" until a switched-to man's own data arrives.
+ */
+export async function usePatientPageActive(titleKey: string, caregiverTitleKey?: string) {
+  const { t } = useI18n()
+  const record = await useActivePatient()
+  const { patientId, active, isCaregiver } = record
+  const title = computed(() => caregiverTitleKey && isCaregiver.value && active.value
+    ? t(caregiverTitleKey, { name: active.value.name })
+    : t(titleKey))
+  useHead({ title })
+  const partOptions = (part: string) => ({
+    key: computed(() => `${part}-${patientId.value ?? 0}`),
+    immediate: patientId.value !== null,
+  })
+  function gate(status: Ref<AsyncDataRequestStatus>) {
+    const switching = useStillShowingPrevious(patientId, status)
+    return computed(() => ({ missing: active.value ? undefined : t('diary.new.noPatient'), loading: switching.value }))
+  }
+  return { ...record, title, partOptions, gate }
+}
