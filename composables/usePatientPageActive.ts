@@ -6,11 +6,13 @@ import type { Ref } from 'vue'
  * for a caregiver `caregiverTitleKey` with the man's name when given), set as the page's, and whose
  * record is open, the fetch options for one part of it (keyed by his id, fetched only when
  * there is someone), and `gate(status)` for AppLoadState (v-bind): "nobody to show" without
- * a record, "loading" until a switched-to man's own data arrives.
+ * a record, "loading" until a switched-to man's own data arrives. Synchronous, and given the
+ * awaited `useActivePatient()` record: the page awaits at its top level, where Nuxt keeps
+ * its context for the useHead and watch calls made here (after an await inside a composable
+ * it would be lost and the server answer 500).
  */
-export async function usePatientPageActive(titleKey: string, caregiverTitleKey?: string) {
+export function usePatientPageActive(record: Awaited<ReturnType<typeof useActivePatient>>, titleKey: string, caregiverTitleKey?: string) {
   const { t } = useI18n()
-  const record = await useActivePatient()
   const { patientId, active, isCaregiver } = record
   const title = computed(() => caregiverTitleKey && isCaregiver.value && active.value
     ? t(caregiverTitleKey, { name: active.value.name })
