@@ -17,13 +17,17 @@ const DEFAULT_REGIMEN_KEYS: Record<string, string> = {
  * the same on the server and in the browser.
  */
 export function useScheduleFormat() {
-  const { t, d } = useI18n()
+  const { t, d, n } = useI18n()
   return {
     /** A calendar date, e.g. "December 8, 2026". */
     day: (date: string, key: 'short' | 'long' | 'weekday' = 'long') => d(new Date(`${date}T12:00:00Z`), { key, timeZone: 'UTC' }),
     /** An instant in the clinic's time zone (the API sends the zone with the data). */
     instant: (iso: string, timeZone: string, key: 'dateTime' | 'time' | 'weekday' | 'long' | 'short' = 'dateTime') =>
       d(new Date(iso), { key, timeZone }),
+    /** How often a regimen's injection comes, one way everywhere: in weeks when whole ("every 12 weeks"), else in days. */
+    every: (intervalDays: number) => (intervalDays % 7 === 0
+      ? t('regimens.everyWeeks', { count: n(intervalDays / 7) }, intervalDays / 7)
+      : t('regimens.everyDays', { count: n(intervalDays) }, intervalDays)),
     regimen: (name: string) => (DEFAULT_REGIMEN_KEYS[name] ? t(`regimens.defaultNames.${DEFAULT_REGIMEN_KEYS[name]}`) : name),
     site: (site: SiteCode) => t(`schedule.sites.${camel(site)}`),
     state: (state: ScheduleState) => t(`schedule.states.${camel(state)}`),

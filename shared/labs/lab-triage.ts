@@ -97,7 +97,7 @@ export function interpretLab(reading: LabReading, context: LabContext): LabInter
   }
 }
 
-const SOURCES = {
+export const LAB_SOURCES = {
   escape: 'Oefelein MG et al., Urology 2000 (castrate level below 50 ng/dL); EAU prostate cancer guidelines (wording from memory): a level at or above it on therapy is possible testosterone escape',
   ctcae: 'CTCAE v5.0 (NCI, 2017), Electrocardiogram QT corrected interval prolonged; grade from Fridericia\'s QTc',
   ada: 'ADA Standards of Care 2025, Diabetes Care 48(Suppl 1): A1C 6.5 % or more is in the diabetes range',
@@ -123,11 +123,11 @@ function rule(id: string, level: TriageLevel, source: string, test: LabRule['tes
 export const PSA_DOUBLING_ROUTINE_MONTHS = 3
 
 export const LAB_RULES: readonly LabRule[] = [
-  rule('testosterone-escape', 'urgent', SOURCES.escape, r => r.kind === 'testosterone' && r.onTherapy && !r.castrate),
-  rule('qtc-grade-3', 'urgent', SOURCES.ctcae, r => r.kind === 'qtc' && r.grade === 3),
-  rule('qtc-grade-2', 'routine', SOURCES.ctcae, r => r.kind === 'qtc' && r.grade === 2),
-  rule('a1c-diabetes-range', 'routine', SOURCES.ada, r => r.kind === 'hba1c' && r.category === 'diabetes'),
-  rule('psa-fast-doubling', 'routine', SOURCES.psaDt, r => r.kind === 'psa' && r.doubling.status === 'rising' && r.doubling.months < PSA_DOUBLING_ROUTINE_MONTHS),
+  rule('testosterone-escape', 'urgent', LAB_SOURCES.escape, r => r.kind === 'testosterone' && r.onTherapy && !r.castrate),
+  rule('qtc-grade-3', 'urgent', LAB_SOURCES.ctcae, r => r.kind === 'qtc' && r.grade === 3),
+  rule('qtc-grade-2', 'routine', LAB_SOURCES.ctcae, r => r.kind === 'qtc' && r.grade === 2),
+  rule('a1c-diabetes-range', 'routine', LAB_SOURCES.ada, r => r.kind === 'hba1c' && r.category === 'diabetes'),
+  rule('psa-fast-doubling', 'routine', LAB_SOURCES.psaDt, r => r.kind === 'psa' && r.doubling.status === 'rising' && r.doubling.months < PSA_DOUBLING_ROUTINE_MONTHS),
 ]
 
 export interface LabTriage {

@@ -90,7 +90,7 @@ export const WORSENING_POINTS = 2
 /** The right-now items that are neurological signs of spinal cord compression (NICE NG234). */
 const NEUROLOGICAL_RIGHT_NOW: readonly RightNowItem[] = ['newWeakness', 'newNumbness', 'troubleWalking', 'bladderBowelControl']
 
-const SOURCES = {
+export const TRIAGE_SOURCES = {
   nice: 'NICE guideline NG234 (2023), Spinal metastases and metastatic spinal cord compression',
   niceImmediate: 'NICE guideline NG234 (2023): spinal pain with neurological symptoms (numbness, sensory loss, weakness, walking, bladder or bowel) is an emergency, seen at once',
   niceSevereBack: 'NICE guideline NG234 (2023): severe unremitting, night or straining spinal pain needs review within 24 hours',
@@ -153,6 +153,19 @@ const SOURCES = {
   lowSugarConfusion: 'ADA Standards of Care 2025, section 6: low sugar with altered mental state is level 3, emergency; common practice',
   highSugarConfusion: 'Very high glucose with confusion may be a hyperglycaemic crisis (ADA hyperglycaemic crises consensus, from memory): emergency, common practice',
   apoplexy: 'GnRH-agonist depot prescribing information, Warnings and post-marketing: pituitary apoplexy (sudden headache, vomiting, change in sight), from memory; emergency: common practice',
+  retention: 'GnRH-agonist depot prescribing information, Warnings (tumour flare); common practice; acute urinary retention',
+  anaphylaxisNow: 'Common practice (emergency care); anaphylaxis',
+  injectionSiteReaction: 'CTCAE v5.0 (NCI, 2017), injection site reaction',
+  baschMood: 'Basch E et al., J Clin Oncol 2016 and JAMA 2022 (PRO-TECT): alert when worse by 2 or more points since the last report (from memory); Kroenke K et al., Med Care 2003 (PHQ-2 of 3 or more is a positive screen)',
+  flareSpine: 'GnRH-agonist depot prescribing information, Warnings (tumour flare); common practice; NICE guideline NG234 (2023), Spinal metastases and metastatic spinal cord compression',
+  flareUrinary: 'GnRH-agonist depot prescribing information, Warnings (tumour flare; urinary tract obstruction); common practice',
+  riskSpinalMetastases: 'GnRH-agonist depot prescribing information, Warnings (men with vertebral metastases watched closely); NICE NG234',
+  riskUrinaryObstruction: 'GnRH-agonist depot prescribing information, Warnings (men with urinary tract obstruction watched closely)',
+  riskDiabetes: 'GnRH-agonist depot prescribing information, Warnings (hyperglycaemia and diabetes); ADA Standards of Care 2025; at most a same-day call: common practice',
+  riskHeartDisease: 'GnRH-agonist depot prescribing information, Warnings (cardiovascular disease); ESC syncope guidelines 2018 (fainting with heart disease is high risk), from memory',
+  riskLongQt: 'GnRH-agonist depot prescribing information, Warnings (QT prolongation); fainting or palpitations with a long QT may be an arrhythmia: from memory',
+  riskSeizures: 'GnRH-agonist depot prescribing information, Warnings (convulsions, post-marketing; from memory); common practice',
+  riskChemotherapy: 'NICE CG151 (2012), Neutropenic sepsis: a fever of 38 °C or more, or feeling unwell, during chemotherapy is an emergency (from memory for the wording); diarrhoea or vomiting during chemotherapy the same day: common practice',
 } as const
 
 /** The numbers of his last report that a worsening is measured against. */
@@ -267,123 +280,123 @@ const HEART_SIGNS = ['fainting', 'racingOrIrregular', 'legSwelling', 'breathless
 
 export const TRIAGE_RULES: readonly TriageRule[] = [
   // Emergency: any right-now item. Call the local emergency number now.
-  rightNowRule('right-now-weakness', 'newWeakness', SOURCES.nice),
-  rightNowRule('right-now-numbness', 'newNumbness', SOURCES.nice),
-  rightNowRule('right-now-walking', 'troubleWalking', SOURCES.nice),
-  rightNowRule('right-now-bladder-bowel', 'bladderBowelControl', SOURCES.nice),
-  rightNowRule('right-now-cannot-pass-urine', 'cannotPassUrine', `${SOURCES.flare}; acute urinary retention`),
-  rightNowRule('right-now-chest-pain', 'chestPain', SOURCES.commonPractice),
-  rightNowRule('right-now-breathing', 'hardToBreathe', SOURCES.commonPractice),
-  rightNowRule('right-now-stroke-signs', 'faceDroopSpeech', SOURCES.commonPractice),
-  rightNowRule('right-now-seizure', 'seizure', SOURCES.commonPractice),
-  rightNowRule('right-now-face-throat-swelling', 'faceThroatSwelling', `${SOURCES.commonPractice}; anaphylaxis`),
-  rightNowRule('right-now-self-harm', 'selfHarmThoughts', SOURCES.selfHarm),
+  rightNowRule('right-now-weakness', 'newWeakness', TRIAGE_SOURCES.nice),
+  rightNowRule('right-now-numbness', 'newNumbness', TRIAGE_SOURCES.nice),
+  rightNowRule('right-now-walking', 'troubleWalking', TRIAGE_SOURCES.nice),
+  rightNowRule('right-now-bladder-bowel', 'bladderBowelControl', TRIAGE_SOURCES.nice),
+  rightNowRule('right-now-cannot-pass-urine', 'cannotPassUrine', TRIAGE_SOURCES.retention),
+  rightNowRule('right-now-chest-pain', 'chestPain', TRIAGE_SOURCES.commonPractice),
+  rightNowRule('right-now-breathing', 'hardToBreathe', TRIAGE_SOURCES.commonPractice),
+  rightNowRule('right-now-stroke-signs', 'faceDroopSpeech', TRIAGE_SOURCES.commonPractice),
+  rightNowRule('right-now-seizure', 'seizure', TRIAGE_SOURCES.commonPractice),
+  rightNowRule('right-now-face-throat-swelling', 'faceThroatSwelling', TRIAGE_SOURCES.anaphylaxisNow),
+  rightNowRule('right-now-self-harm', 'selfHarmThoughts', TRIAGE_SOURCES.selfHarm),
 
   // Emergency from the rest of the diary: signs that together call for emergency care.
   // Spinal pain with any neurological sign, whatever the score (NICE NG234: suspected
   // spinal cord compression is seen at once).
-  rule('spinal-pain-neurological', 'emergency', SOURCES.niceImmediate, entry =>
+  rule('spinal-pain-neurological', 'emergency', TRIAGE_SOURCES.niceImmediate, entry =>
     spinalPain(entry)
     && (entry.pain.tinglingOrNumbness || NEUROLOGICAL_RIGHT_NOW.some(item => entry.rightNow[item]))),
-  rule('fever-during-chemotherapy', 'emergency', SOURCES.niceFever, (entry, { riskProfile }) =>
+  rule('fever-during-chemotherapy', 'emergency', TRIAGE_SOURCES.niceFever, (entry, { riskProfile }) =>
     riskProfile?.chemotherapy === true && (fever(entry) || entry.infection.feelsUnwell || entry.infection.shakingChills)),
-  rule('black-stool-with-fainting', 'emergency', SOURCES.bleedCollapse, ({ bowel, heart }) =>
+  rule('black-stool-with-fainting', 'emergency', TRIAGE_SOURCES.bleedCollapse, ({ bowel, heart }) =>
     bowel.bloodOrBlackStool && heart.fainting),
-  rule('constipation-with-vomiting', 'emergency', SOURCES.obstruction, entry =>
+  rule('constipation-with-vomiting', 'emergency', TRIAGE_SOURCES.obstruction, entry =>
     constipationGrade(entry) >= 3 && entry.bowel.vomiting),
-  rule('head-injury-with-confusion', 'emergency', SOURCES.headInjury, entry =>
+  rule('head-injury-with-confusion', 'emergency', TRIAGE_SOURCES.headInjury, entry =>
     entry.falls.hitHeadOrHurt && newConfusion(entry)),
-  rule('rash-with-fainting', 'emergency', SOURCES.anaphylaxis, ({ allergy, heart }) =>
+  rule('rash-with-fainting', 'emergency', TRIAGE_SOURCES.anaphylaxis, ({ allergy, heart }) =>
     (allergy.any || allergy.spreading) && heart.fainting),
-  rule('low-sugar-with-confusion', 'emergency', SOURCES.lowSugarConfusion, entry =>
+  rule('low-sugar-with-confusion', 'emergency', TRIAGE_SOURCES.lowSugarConfusion, entry =>
     glucoseBelow(entry, 70) && newConfusion(entry)),
-  rule('high-sugar-with-confusion', 'emergency', SOURCES.highSugarConfusion, entry =>
+  rule('high-sugar-with-confusion', 'emergency', TRIAGE_SOURCES.highSugarConfusion, entry =>
     glucoseAtLeast(entry, 300) && newConfusion(entry)),
-  rule('headache-sudden-severe', 'emergency', SOURCES.suddenHeadache, ({ headache }) => headache.suddenSevere),
-  rule('fainting-with-heart-signs', 'emergency', SOURCES.syncope, ({ heart }) =>
+  rule('headache-sudden-severe', 'emergency', TRIAGE_SOURCES.suddenHeadache, ({ headache }) => headache.suddenSevere),
+  rule('fainting-with-heart-signs', 'emergency', TRIAGE_SOURCES.syncope, ({ heart }) =>
     heart.fainting && (heart.racingOrIrregular || heart.breathlessLightEffort || heart.legSwelling)),
-  rule('possible-lung-clot', 'emergency', SOURCES.lungClot, ({ heart }) =>
+  rule('possible-lung-clot', 'emergency', TRIAGE_SOURCES.lungClot, ({ heart }) =>
     heart.oneLegPainfulSwollen && (heart.breathlessLightEffort || heart.racingOrIrregular)),
-  rule('headache-vision-or-vomiting', 'emergency', SOURCES.apoplexy, ({ headache, bowel }) =>
+  rule('headache-vision-or-vomiting', 'emergency', TRIAGE_SOURCES.apoplexy, ({ headache, bowel }) =>
     headache.visionOrVomiting || ((headache.any || headache.suddenSevere) && bowel.vomiting)),
 
   // Urgent: a nurse calls the same day.
-  rule('spinal-pain-pattern', 'urgent', SOURCES.niceSevereBack, ({ pain }) =>
+  rule('spinal-pain-pattern', 'urgent', TRIAGE_SOURCES.niceSevereBack, ({ pain }) =>
     pain.bandLike
     || (hasAny(pain.locations, SPINE_LOCATIONS) && (pain.newOrWorse || pain.wakesAtNight || pain.worseOnStraining || pain.worst >= 7))),
-  rule('spinal-pain-worse-since-last', 'urgent', SOURCES.progressiveSpine, ({ pain }, { baseline }) =>
+  rule('spinal-pain-worse-since-last', 'urgent', TRIAGE_SOURCES.progressiveSpine, ({ pain }, { baseline }) =>
     hasAny(pain.locations, SPINE_LOCATIONS) && baseline !== null && pain.worst - baseline.pain >= WORSENING_POINTS),
-  rule('pain-with-tingling', 'urgent', SOURCES.painTingling, ({ pain }) => pain.worst >= 1 && pain.tinglingOrNumbness),
-  rule('severe-pain-new-or-worse', 'urgent', SOURCES.serlin, ({ pain }) =>
+  rule('pain-with-tingling', 'urgent', TRIAGE_SOURCES.painTingling, ({ pain }) => pain.worst >= 1 && pain.tinglingOrNumbness),
+  rule('severe-pain-new-or-worse', 'urgent', TRIAGE_SOURCES.serlin, ({ pain }) =>
     pain.worst >= 7 && pain.newOrWorse),
-  rule('blood-in-urine', 'urgent', SOURCES.commonPractice, ({ urinary }) => urinary.blood),
-  rule('fainting', 'urgent', SOURCES.commonPractice, ({ heart }) => heart.fainting),
-  rule('heart-signs-together', 'urgent', SOURCES.heartTogether, ({ heart }) =>
+  rule('blood-in-urine', 'urgent', TRIAGE_SOURCES.commonPractice, ({ urinary }) => urinary.blood),
+  rule('fainting', 'urgent', TRIAGE_SOURCES.commonPractice, ({ heart }) => heart.fainting),
+  rule('heart-signs-together', 'urgent', TRIAGE_SOURCES.heartTogether, ({ heart }) =>
     HEART_SIGNS.filter(sign => heart[sign]).length >= 2),
-  rule('one-leg-painful-swollen', 'urgent', SOURCES.dvt, ({ heart }) => heart.oneLegPainfulSwollen),
-  rule('injection-site-infection', 'urgent', SOURCES.commonPractice, ({ injectionSite }) =>
+  rule('one-leg-painful-swollen', 'urgent', TRIAGE_SOURCES.dvt, ({ heart }) => heart.oneLegPainfulSwollen),
+  rule('injection-site-infection', 'urgent', TRIAGE_SOURCES.commonPractice, ({ injectionSite }) =>
     injectionSite.feverOrSpreadingRednessOrPus),
-  rule('glucose-very-high', 'urgent', SOURCES.glucose, entry => glucoseAtLeast(entry, 300)),
-  rule('glucose-very-low', 'urgent', SOURCES.adaLow2, entry => glucoseBelow(entry, 54)),
-  rule('low-sugar-needed-help', 'urgent', SOURCES.adaLow3, ({ sugar }) => sugar.neededHelpForLowSugar),
-  rule('fever-with-warning-signs', 'urgent', SOURCES.feverSameDay, entry =>
+  rule('glucose-very-high', 'urgent', TRIAGE_SOURCES.glucose, entry => glucoseAtLeast(entry, 300)),
+  rule('glucose-very-low', 'urgent', TRIAGE_SOURCES.adaLow2, entry => glucoseBelow(entry, 54)),
+  rule('low-sugar-needed-help', 'urgent', TRIAGE_SOURCES.adaLow3, ({ sugar }) => sugar.neededHelpForLowSugar),
+  rule('fever-with-warning-signs', 'urgent', TRIAGE_SOURCES.feverSameDay, entry =>
     fever(entry) && (entry.infection.shakingChills || newConfusion(entry) || entry.urinary.burning
       || diarrhoeaGrade(entry) >= 2 || entry.bowel.vomiting)),
-  rule('fever-high', 'urgent', SOURCES.highFever, (entry) => {
+  rule('fever-high', 'urgent', TRIAGE_SOURCES.highFever, (entry) => {
     const value = celsius(entry)
     return value !== null && value > 39
   }),
-  rule('diarrhoea-with-vomiting', 'urgent', SOURCES.dehydration, entry => diarrhoeaGrade(entry) >= 2 && entry.bowel.vomiting),
-  rule('diarrhoea-grade-3', 'urgent', SOURCES.diarrhoea3, entry => diarrhoeaGrade(entry) >= 3),
-  rule('constipation-no-movement', 'urgent', SOURCES.constipation3, entry => constipationGrade(entry) >= 3),
-  rule('blood-or-black-stool', 'urgent', SOURCES.giBleed, ({ bowel }) => bowel.bloodOrBlackStool),
-  rule('vomiting-with-confusion', 'urgent', SOURCES.hypercalcaemia, entry => entry.bowel.vomiting && newConfusion(entry)),
-  rule('fall-injury', 'urgent', SOURCES.fracture, ({ falls }) => falls.hitHeadOrHurt || falls.cannotBearWeight),
-  rule('rash-spreading', 'urgent', SOURCES.spreadingRash, ({ allergy }) => allergy.spreading),
-  rule('confused-or-hard-to-wake', 'urgent', SOURCES.confusion, ({ mind }) => mind.confusedOrHardToWake),
-  rule('hot-flushes-grade-3', 'urgent', SOURCES.ctcae, entry => hotFlushGrade(entry) >= 3),
-  rule('fatigue-grade-3', 'urgent', SOURCES.ctcae, entry => fatigueGrade(entry) >= 3),
+  rule('diarrhoea-with-vomiting', 'urgent', TRIAGE_SOURCES.dehydration, entry => diarrhoeaGrade(entry) >= 2 && entry.bowel.vomiting),
+  rule('diarrhoea-grade-3', 'urgent', TRIAGE_SOURCES.diarrhoea3, entry => diarrhoeaGrade(entry) >= 3),
+  rule('constipation-no-movement', 'urgent', TRIAGE_SOURCES.constipation3, entry => constipationGrade(entry) >= 3),
+  rule('blood-or-black-stool', 'urgent', TRIAGE_SOURCES.giBleed, ({ bowel }) => bowel.bloodOrBlackStool),
+  rule('vomiting-with-confusion', 'urgent', TRIAGE_SOURCES.hypercalcaemia, entry => entry.bowel.vomiting && newConfusion(entry)),
+  rule('fall-injury', 'urgent', TRIAGE_SOURCES.fracture, ({ falls }) => falls.hitHeadOrHurt || falls.cannotBearWeight),
+  rule('rash-spreading', 'urgent', TRIAGE_SOURCES.spreadingRash, ({ allergy }) => allergy.spreading),
+  rule('confused-or-hard-to-wake', 'urgent', TRIAGE_SOURCES.confusion, ({ mind }) => mind.confusedOrHardToWake),
+  rule('hot-flushes-grade-3', 'urgent', TRIAGE_SOURCES.ctcae, entry => hotFlushGrade(entry) >= 3),
+  rule('fatigue-grade-3', 'urgent', TRIAGE_SOURCES.ctcae, entry => fatigueGrade(entry) >= 3),
 
   // Routine: a nurse is in touch within a few working days.
-  rule('severe-pain', 'routine', SOURCES.serlinSevere, ({ pain }) => pain.worst >= 7),
-  rule('pain-night-or-straining', 'routine', SOURCES.pain, ({ pain }) => pain.wakesAtNight || pain.worseOnStraining),
-  rule('tingling-or-numbness', 'routine', SOURCES.tingling, ({ pain }) => pain.tinglingOrNumbness),
-  rule('weak-stream', 'routine', SOURCES.weakStream, ({ urinary }) => urinary.weakStreamOrStraining),
-  rule('ipss-severe', 'routine', SOURCES.barry, ({ urinary }) =>
+  rule('severe-pain', 'routine', TRIAGE_SOURCES.serlinSevere, ({ pain }) => pain.worst >= 7),
+  rule('pain-night-or-straining', 'routine', TRIAGE_SOURCES.pain, ({ pain }) => pain.wakesAtNight || pain.worseOnStraining),
+  rule('tingling-or-numbness', 'routine', TRIAGE_SOURCES.tingling, ({ pain }) => pain.tinglingOrNumbness),
+  rule('weak-stream', 'routine', TRIAGE_SOURCES.weakStream, ({ urinary }) => urinary.weakStreamOrStraining),
+  rule('ipss-severe', 'routine', TRIAGE_SOURCES.barry, ({ urinary }) =>
     urinary.ipss !== undefined && ipss(urinary.ipss.items).band === 'severe'),
-  rule('phq2-positive', 'routine', SOURCES.kroenke, ({ mood }) =>
+  rule('phq2-positive', 'routine', TRIAGE_SOURCES.kroenke, ({ mood }) =>
     phq2(mood.phq2Interest, mood.phq2Down).positive),
   // With or without a reading: a reading never lowers what the symptoms give (issue 9).
-  rule('high-sugar-symptoms', 'routine', SOURCES.ada, highSugarSymptoms),
-  rule('glucose-high-with-symptoms', 'routine', SOURCES.adaHigh, entry =>
+  rule('high-sugar-symptoms', 'routine', TRIAGE_SOURCES.ada, highSugarSymptoms),
+  rule('glucose-high-with-symptoms', 'routine', TRIAGE_SOURCES.adaHigh, entry =>
     glucoseAtLeast(entry, 200) && highSugarSymptoms(entry)),
-  rule('glucose-high', 'routine', SOURCES.adaHighAlone, entry => glucoseAtLeast(entry, 200)),
-  rule('glucose-low', 'routine', SOURCES.adaLow1, entry => glucoseBelow(entry, 70)),
-  rule('low-sugar-signs', 'routine', SOURCES.adaLowSigns, ({ sugar }) => sugar.lowSugarSigns),
-  rule('infection-signs', 'routine', SOURCES.infection, ({ infection }) =>
+  rule('glucose-high', 'routine', TRIAGE_SOURCES.adaHighAlone, entry => glucoseAtLeast(entry, 200)),
+  rule('glucose-low', 'routine', TRIAGE_SOURCES.adaLow1, entry => glucoseBelow(entry, 70)),
+  rule('low-sugar-signs', 'routine', TRIAGE_SOURCES.adaLowSigns, ({ sugar }) => sugar.lowSugarSigns),
+  rule('infection-signs', 'routine', TRIAGE_SOURCES.infection, ({ infection }) =>
     infection.any || infection.shakingChills || infection.feelsUnwell),
-  rule('fever', 'routine', SOURCES.fever, fever),
-  rule('temperature-low', 'routine', SOURCES.lowTemperature, (entry) => {
+  rule('fever', 'routine', TRIAGE_SOURCES.fever, fever),
+  rule('temperature-low', 'routine', TRIAGE_SOURCES.lowTemperature, (entry) => {
     const value = celsius(entry)
     return value !== null && value < 36
   }),
-  rule('diarrhoea-grade-2', 'routine', SOURCES.diarrhoea2, entry => diarrhoeaGrade(entry) >= 2),
-  rule('constipation-persistent', 'routine', SOURCES.constipation2, entry => constipationGrade(entry) >= 2),
-  rule('vomiting', 'routine', SOURCES.vomiting, ({ bowel }) => bowel.vomiting),
-  rule('fall', 'routine', SOURCES.falls, ({ falls }) => falls.any),
-  rule('rash-after-injection', 'routine', SOURCES.hypersensitivity, ({ allergy }) => allergy.any),
-  rule('mind-changes', 'routine', SOURCES.memory, ({ mind }) => mind.any || mind.memoryOrConcentration),
-  rule('headache-new', 'routine', SOURCES.headache, ({ headache }) => headache.any),
-  rule('hot-flushes-grade-2', 'routine', SOURCES.ctcae, entry => hotFlushGrade(entry) >= 2),
-  rule('fatigue-grade-2', 'routine', SOURCES.ctcae, entry => fatigueGrade(entry) >= 2),
-  rule('injection-site-signs', 'routine', `${SOURCES.ctcae}, injection site reaction`, ({ injectionSite }) =>
+  rule('diarrhoea-grade-2', 'routine', TRIAGE_SOURCES.diarrhoea2, entry => diarrhoeaGrade(entry) >= 2),
+  rule('constipation-persistent', 'routine', TRIAGE_SOURCES.constipation2, entry => constipationGrade(entry) >= 2),
+  rule('vomiting', 'routine', TRIAGE_SOURCES.vomiting, ({ bowel }) => bowel.vomiting),
+  rule('fall', 'routine', TRIAGE_SOURCES.falls, ({ falls }) => falls.any),
+  rule('rash-after-injection', 'routine', TRIAGE_SOURCES.hypersensitivity, ({ allergy }) => allergy.any),
+  rule('mind-changes', 'routine', TRIAGE_SOURCES.memory, ({ mind }) => mind.any || mind.memoryOrConcentration),
+  rule('headache-new', 'routine', TRIAGE_SOURCES.headache, ({ headache }) => headache.any),
+  rule('hot-flushes-grade-2', 'routine', TRIAGE_SOURCES.ctcae, entry => hotFlushGrade(entry) >= 2),
+  rule('fatigue-grade-2', 'routine', TRIAGE_SOURCES.ctcae, entry => fatigueGrade(entry) >= 2),
+  rule('injection-site-signs', 'routine', TRIAGE_SOURCES.injectionSiteReaction, ({ injectionSite }) =>
     injectionSite.pain || injectionSite.redness || injectionSite.swelling || injectionSite.lump),
-  rule('heart-racing-or-irregular', 'routine', SOURCES.cardiac, ({ heart }) => heart.racingOrIrregular),
-  rule('leg-swelling', 'routine', SOURCES.cardiac, ({ heart }) => heart.legSwelling),
-  rule('breathless-light-effort', 'routine', SOURCES.cardiac, ({ heart }) => heart.breathlessLightEffort),
-  rule('burning-urine', 'routine', SOURCES.urinaryInfection, ({ urinary }) => urinary.burning),
+  rule('heart-racing-or-irregular', 'routine', TRIAGE_SOURCES.cardiac, ({ heart }) => heart.racingOrIrregular),
+  rule('leg-swelling', 'routine', TRIAGE_SOURCES.cardiac, ({ heart }) => heart.legSwelling),
+  rule('breathless-light-effort', 'routine', TRIAGE_SOURCES.cardiac, ({ heart }) => heart.breathlessLightEffort),
+  rule('burning-urine', 'routine', TRIAGE_SOURCES.urinaryInfection, ({ urinary }) => urinary.burning),
   // Every note is read by a person: a note alone opens a routine "note to read" item.
-  rule('note-to-read', 'routine', SOURCES.note, entry => (entry.note ?? '').trim().length > 0),
+  rule('note-to-read', 'routine', TRIAGE_SOURCES.note, entry => (entry.note ?? '').trim().length > 0),
 ]
 
 const RULES_BY_ID = new Map(TRIAGE_RULES.map(r => [r.id, r]))
@@ -438,7 +451,7 @@ export function baselineOf(previous: readonly DiaryEntryInput[]): Baseline | nul
 export const IPSS_RISE = 3
 
 
-function baselineRule(id: string, symptomRules: readonly string[], value: (entry: DiaryEntryInput) => number, last: (baseline: Baseline) => number, source: string = SOURCES.basch): RaiseRule {
+function baselineRule(id: string, symptomRules: readonly string[], value: (entry: DiaryEntryInput) => number, last: (baseline: Baseline) => number, source: string = TRIAGE_SOURCES.basch): RaiseRule {
   return {
     id,
     raisedBy: 'baseline',
@@ -451,7 +464,7 @@ function baselineRule(id: string, symptomRules: readonly string[], value: (entry
   }
 }
 
-function flareRule(id: string, symptomRules: readonly string[], atLeast: TriageLevel, atMost: TriageLevel, test: (entry: DiaryEntryInput) => boolean, source = `${SOURCES.flare}; ${SOURCES.nice}`): RaiseRule {
+function flareRule(id: string, symptomRules: readonly string[], atLeast: TriageLevel, atMost: TriageLevel, test: (entry: DiaryEntryInput) => boolean, source: string = TRIAGE_SOURCES.flareSpine): RaiseRule {
   return {
     id,
     raisedBy: 'flare-watch',
@@ -506,7 +519,7 @@ export const RAISE_RULES: readonly RaiseRule[] = [
   baselineRule('baseline-diarrhoea', ['diarrhoea-grade-3', 'diarrhoea-grade-2'], diarrhoeaGrade, last => last.diarrhoea),
   baselineRule('baseline-constipation', ['constipation-no-movement', 'constipation-persistent'], constipationGrade, last => last.constipation),
   // The points compared are the PHQ-2's, so its source is named beside Basch's.
-  baselineRule('baseline-mood', ['phq2-positive'], ({ mood }) => mood.phq2Interest + mood.phq2Down, last => last.mood, `${SOURCES.basch}; ${SOURCES.kroenke}`),
+  baselineRule('baseline-mood', ['phq2-positive'], ({ mood }) => mood.phq2Interest + mood.phq2Down, last => last.mood, TRIAGE_SOURCES.baschMood),
   // The IPSS has 35 points, not a 5-point scale: a rise of 3 since his last IPSS.
   {
     id: 'baseline-ipss',
@@ -514,7 +527,7 @@ export const RAISE_RULES: readonly RaiseRule[] = [
     symptomRules: ['ipss-severe', 'weak-stream'],
     atLeast: 'routine',
     atMost: 'urgent',
-    source: SOURCES.barryChange,
+    source: TRIAGE_SOURCES.barryChange,
     ...keys('baseline-ipss'),
     test: ({ urinary }, { baseline }) => baseline !== null && baseline.ipss !== null && urinary.ipss !== undefined
       && ipss(urinary.ipss.items).total - baseline.ipss >= IPSS_RISE,
@@ -535,24 +548,24 @@ export const RAISE_RULES: readonly RaiseRule[] = [
   // (spinal cord compression) is not its basis.
   flareRule('flare-watch-urinary', ['right-now-cannot-pass-urine', 'ipss-severe', 'weak-stream'], 'urgent', 'emergency', ({ urinary, rightNow }) =>
     urinary.weakStreamOrStraining || rightNow.cannotPassUrine,
-  'GnRH-agonist depot prescribing information, Warnings (tumour flare; urinary tract obstruction); common practice'),
+  TRIAGE_SOURCES.flareUrinary),
   flareRule('flare-watch-tingling', ['right-now-numbness', 'tingling-or-numbness', 'spinal-pain-neurological'], 'urgent', 'emergency', ({ pain, rightNow }) =>
     pain.tinglingOrNumbness || rightNow.newNumbness),
 
   // Risk factors on his record (nurses and clinicians set them).
   riskRule('spinalMetastases', [...PAIN_RULES, ...NEUROLOGICAL_RULES], 'emergency',
-    'GnRH-agonist depot prescribing information, Warnings (men with vertebral metastases watched closely); NICE NG234'),
+    TRIAGE_SOURCES.riskSpinalMetastases),
   riskRule('urinaryObstruction', URINARY_RULES, 'emergency',
-    'GnRH-agonist depot prescribing information, Warnings (men with urinary tract obstruction watched closely)'),
+    TRIAGE_SOURCES.riskUrinaryObstruction),
   riskRule('diabetes', SUGAR_RULES, 'urgent',
-    'GnRH-agonist depot prescribing information, Warnings (hyperglycaemia and diabetes); ADA Standards of Care 2025; at most a same-day call: common practice'),
+    TRIAGE_SOURCES.riskDiabetes),
   riskRule('heartDisease', HEART_RULES, 'emergency',
-    'GnRH-agonist depot prescribing information, Warnings (cardiovascular disease); ESC syncope guidelines 2018 (fainting with heart disease is high risk), from memory'),
+    TRIAGE_SOURCES.riskHeartDisease),
   riskRule('longQt', RHYTHM_RULES, 'emergency',
-    'GnRH-agonist depot prescribing information, Warnings (QT prolongation); fainting or palpitations with a long QT may be an arrhythmia: from memory'),
+    TRIAGE_SOURCES.riskLongQt),
   riskRule('seizures', MIND_AND_HEADACHE_RULES, 'emergency',
-    'GnRH-agonist depot prescribing information, Warnings (convulsions, post-marketing; from memory); common practice'),
-  riskRule('chemotherapy', INFECTION_RULES, 'emergency', `${SOURCES.niceFever}; diarrhoea or vomiting during chemotherapy the same day: common practice`),
+    TRIAGE_SOURCES.riskSeizures),
+  riskRule('chemotherapy', INFECTION_RULES, 'emergency', TRIAGE_SOURCES.riskChemotherapy),
 ]
 
 export interface TriageTargets {

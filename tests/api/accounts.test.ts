@@ -44,7 +44,7 @@ const mailTo = (address: string, after: number) => mail.messages.filter((m, i) =
 const HEALTH_WORDS = /diar|triag|lab|psa|testosteron|hba1c|qtc|symptom|síntoma|pain|dolor|injection|inyecci|flare|brote|urgent|LPU-/i
 
 function expectNoHealthData(message: CaughtMessage, greeting: string) {
-  const words = `${message.subject}\n${message.text}`.replace(/Tidewell does not replace medical advice[^\n]*|Tidewell no reemplaza el consejo médico[^\n]*/, '')
+  const words = `${message.subject}\n${message.text}`.replace(/Tidewell does not replace medical advice[^\n]*|Tidewell no sustituye el consejo médico[^\n]*/, '')
   expect(words).not.toMatch(HEALTH_WORDS)
   expect(message.text).toContain(greeting)
 }

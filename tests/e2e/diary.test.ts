@@ -127,7 +127,7 @@ describe('the weekly diary', () => {
 
     await page.waitForURL(u => /^\/diary\/\d+$/.test(u.pathname))
     await page.getByRole('heading', { level: 1, name: 'Your diary was sent' }).waitFor()
-    await page.getByText('Routine', { exact: true }).waitFor()
+    await page.getByText('The clinic will be in touch', { exact: true }).waitFor()
     await page.getByText(/The nurse will talk with you about ways to ease your hot flushes/).waitFor()
     await page.getByText(/A nurse will be in touch by/).waitFor()
     await page.getByText('Tidewell does not replace medical advice. If you are worried, call your clinic.').first().waitFor()
@@ -150,7 +150,7 @@ describe('the weekly diary', () => {
     const card = page.getByRole('region', { name: 'Weekly diary' })
     await card.waitFor()
     await card.getByText(/^Last diary entry: /).waitFor()
-    await expect.poll(() => card.getByText('Routine', { exact: true }).count(), { timeout: 10_000 }).toBe(1)
+    await expect.poll(() => card.getByText('The clinic will be in touch', { exact: true }).count(), { timeout: 10_000 }).toBe(1)
     await expect.poll(() => card.getByText(/Your weekly diary is due/).count(), { timeout: 10_000 }).toBe(0)
     await card.getByRole('link', { name: 'Fill in this week\'s diary' }).waitFor()
     await page.close()
@@ -207,7 +207,7 @@ describe('the weekly diary', () => {
     await page.getByRole('button', { name: 'Send my diary' }).click()
 
     await page.waitForURL(u => /^\/diary\/\d+$/.test(u.pathname))
-    await page.getByText('Emergency', { exact: true }).first().waitFor()
+    await page.getByText('Call for help now', { exact: true }).first().waitFor()
     // One entry, one queue item.
     await expect.poll(async () => (await queueOf(EMERGENCY_CLINIC_NUMBER)).length, { timeout: 10_000 }).toBe(1)
     await page.close()

@@ -155,7 +155,7 @@ describe('a closed emergency reads as the past on the entry page', () => {
     await outcome.getByText('dolor, opresión o presión en el pecho').waitFor()
     await expect(outcome.locator('[data-outcome-line]').textContent()).resolves.toMatch(/El equipo de atención lo cerró el .+: Enviado a urgencias\./)
     // No more "call now, a nurse has been alerted" for an item the care team has closed.
-    await expect.poll(() => main.getByText('También se ha avisado a una enfermera', { exact: false }).count(), { timeout: 10_000 }).toBe(0)
+    await expect.poll(() => main.getByText('También se ha avisado al equipo de enfermería', { exact: false }).count(), { timeout: 10_000 }).toBe(0)
     await expect.poll(() => main.getByRole('alert').count(), { timeout: 10_000 }).toBe(0)
     expect(await seriousAxeViolations(page)).toEqual([])
     await page.close()
