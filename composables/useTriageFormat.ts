@@ -8,7 +8,8 @@ const MINUTE = 60_000
  * so the server and the browser write the same thing.
  */
 export function useTriageFormat() {
-  const { t, d } = useI18n()
+  const { t } = useI18n()
+  const { instant } = useClinicTime()
 
   /** A span of time in short words: "35 min", "2 h 10 min", "1 d 3 h". */
   function span(milliseconds: number) {
@@ -38,7 +39,8 @@ export function useTriageFormat() {
     span,
     timeLeft,
     isOverdue,
-    when: (iso: string, timeZone: string) => d(new Date(iso), { key: 'dateTime', timeZone }),
+    /** An instant in the clinic's zone, labelled with the zone when the reader's own differs (useClinicTime). */
+    when: (iso: string, timeZone: string) => instant(iso, 'dateTime', timeZone),
     status: (status: TriageItemStatus) => t(`triage.statuses.${status}`),
     source: (source: TriageSource) => t(`triage.sources.${source}`),
     disposition: (disposition: Disposition) => t(`triage.dispositions.${disposition}`),
