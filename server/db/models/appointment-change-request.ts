@@ -1,14 +1,13 @@
-import { DataTypes, Model } from 'sequelize'
+import { DataTypes } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
 import type { ChangeDecision, ChangeRequestStatus } from '#shared/schedule/statuses'
 import type { Appointment } from './appointment'
 import type { Patient } from './patient'
 import type { User } from './user'
-import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
+import { FormRecordModel, requestIdColumn, statusColumn } from './columns'
 
 /** A patient's (or caregiver's) request for another appointment time, and the answer. */
-export class AppointmentChangeRequest extends Model<InferAttributes<AppointmentChangeRequest>, InferCreationAttributes<AppointmentChangeRequest>> {
-  declare id: CreationOptional<number>
+export class AppointmentChangeRequest extends FormRecordModel<InferAttributes<AppointmentChangeRequest>, InferCreationAttributes<AppointmentChangeRequest>> {
   declare appointmentId: ForeignKey<Appointment['id']>
   declare patientId: ForeignKey<Patient['id']>
   declare requestedByUserId: ForeignKey<User['id']>
@@ -19,25 +18,18 @@ export class AppointmentChangeRequest extends Model<InferAttributes<AppointmentC
   declare answerNote: string | null
   declare answeredByUserId: ForeignKey<User['id']> | null
   declare answeredAt: Date | null
-  /** The id the form made (uuid), so a retry finds this record; null from older clients. */
-  declare requestId: CreationOptional<string | null>
-  declare createdAt: CreationOptional<Date>
-  declare updatedAt: CreationOptional<Date>
   declare requestedBy?: NonAttribute<User>
   declare answeredBy?: NonAttribute<User | null>
 
   static initModel(sequelize: Sequelize) {
-    AppointmentChangeRequest.init({
-      ...idColumn(),
+    AppointmentChangeRequest.initRecord(sequelize, 'appointment_change_requests', {
       preferredDates: { type: DataTypes.JSON, allowNull: false, field: 'preferred_dates' },
       note: { type: DataTypes.TEXT, allowNull: true },
-      status: { type: DataTypes.STRING, allowNull: false, defaultValue: 'open' },
+      ...statusColumn('open'),
       decision: { type: DataTypes.STRING, allowNull: true },
       answerNote: { type: DataTypes.TEXT, allowNull: true, field: 'answer_note' },
       answeredAt: { type: DataTypes.DATE, allowNull: true, field: 'answered_at' },
-      requestId: { type: DataTypes.STRING, allowNull: true, field: 'request_id' },
-      ...createdAtColumn(),
-      ...updatedAtColumn(),
-    }, { sequelize, tableName: 'appointment_change_requests' })
+      ...requestIdColumn(),
+    })
   }
 }

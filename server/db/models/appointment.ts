@@ -1,17 +1,16 @@
-import { DataTypes, Model } from 'sequelize'
+import { DataTypes } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
 import type { AppointmentStatus } from '#shared/schedule/statuses'
 import type { Patient } from './patient'
 import type { User } from './user'
 import type { AppointmentChangeRequest } from './appointment-change-request'
-import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
+import { RecordModel, statusColumn } from './columns'
 
 /**
  * An injection appointment, stored as a UTC instant and shown in the clinic's time zone.
  * sequence counts the times it was moved (the iCalendar SEQUENCE of its calendar file).
  */
-export class Appointment extends Model<InferAttributes<Appointment>, InferCreationAttributes<Appointment>> {
-  declare id: CreationOptional<number>
+export class Appointment extends RecordModel<InferAttributes<Appointment>, InferCreationAttributes<Appointment>> {
   declare patientId: ForeignKey<Patient['id']>
   declare startsAt: Date
   declare durationMinutes: number
@@ -21,23 +20,18 @@ export class Appointment extends Model<InferAttributes<Appointment>, InferCreati
   declare confirmedAt: Date | null
   declare confirmedByUserId: ForeignKey<User['id']> | null
   declare createdByUserId: ForeignKey<User['id']> | null
-  declare createdAt: CreationOptional<Date>
-  declare updatedAt: CreationOptional<Date>
   declare confirmedBy?: NonAttribute<User | null>
   declare patient?: NonAttribute<Patient>
   declare changeRequests?: NonAttribute<AppointmentChangeRequest[]>
 
   static initModel(sequelize: Sequelize) {
-    Appointment.init({
-      ...idColumn(),
+    Appointment.initRecord(sequelize, 'appointments', {
       startsAt: { type: DataTypes.DATE, allowNull: false, field: 'starts_at' },
       durationMinutes: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 30, field: 'duration_minutes' },
       place: { type: DataTypes.STRING, allowNull: false },
-      status: { type: DataTypes.STRING, allowNull: false, defaultValue: 'booked' },
+      ...statusColumn('booked'),
       sequence: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       confirmedAt: { type: DataTypes.DATE, allowNull: true, field: 'confirmed_at' },
-      ...createdAtColumn(),
-      ...updatedAtColumn(),
-    }, { sequelize, tableName: 'appointments' })
+    })
   }
 }

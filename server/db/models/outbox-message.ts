@@ -1,6 +1,6 @@
-import { DataTypes, Model } from 'sequelize'
+import { DataTypes } from 'sequelize'
 import type { CreationOptional, InferAttributes, InferCreationAttributes, Sequelize } from 'sequelize'
-import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
+import { RecordModel, statusColumn } from './columns'
 
 export interface OutboxAttachment {
   filename: string
@@ -9,8 +9,7 @@ export interface OutboxAttachment {
 }
 
 /** An e-mail waiting to be sent, written in the same transaction as the change that caused it. */
-export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCreationAttributes<OutboxMessage>> {
-  declare id: CreationOptional<number>
+export class OutboxMessage extends RecordModel<InferAttributes<OutboxMessage>, InferCreationAttributes<OutboxMessage>> {
   declare to: string
   declare subject: string
   declare text: string
@@ -22,25 +21,20 @@ export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCr
   declare nextAttemptAt: CreationOptional<Date>
   declare lastError: string | null
   declare sentAt: Date | null
-  declare createdAt: CreationOptional<Date>
-  declare updatedAt: CreationOptional<Date>
 
   static initModel(sequelize: Sequelize) {
-    OutboxMessage.init({
-      ...idColumn(),
+    OutboxMessage.initRecord(sequelize, 'outbox_messages', {
       to: { type: DataTypes.STRING, allowNull: false, field: 'to_address' },
       subject: { type: DataTypes.STRING, allowNull: false },
       text: { type: DataTypes.TEXT, allowNull: false },
       html: { type: DataTypes.TEXT, allowNull: false },
       attachments: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },
       dedupeKey: { type: DataTypes.STRING, allowNull: true, unique: true, field: 'dedupe_key' },
-      status: { type: DataTypes.STRING, allowNull: false, defaultValue: 'pending' },
+      ...statusColumn('pending'),
       attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       nextAttemptAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW, field: 'next_attempt_at' },
       lastError: { type: DataTypes.TEXT, allowNull: true, field: 'last_error' },
       sentAt: { type: DataTypes.DATE, allowNull: true, field: 'sent_at' },
-      ...createdAtColumn(),
-      ...updatedAtColumn(),
-    }, { sequelize, tableName: 'outbox_messages' })
+    })
   }
 }

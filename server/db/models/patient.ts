@@ -1,11 +1,10 @@
-import { DataTypes, Model } from 'sequelize'
+import { DataTypes } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
 import type { ContactPreference, PatientPhone } from '#shared/contact/schemas'
 import type { User } from './user'
-import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
+import { RecordModel } from './columns'
 
-export class Patient extends Model<InferAttributes<Patient>, InferCreationAttributes<Patient>> {
-  declare id: CreationOptional<number>
+export class Patient extends RecordModel<InferAttributes<Patient>, InferCreationAttributes<Patient>> {
   declare userId: ForeignKey<User['id']>
   declare clinicNumber: string
   declare dateOfBirth: string
@@ -14,21 +13,16 @@ export class Patient extends Model<InferAttributes<Patient>, InferCreationAttrib
   declare phones: CreationOptional<PatientPhone[]>
   declare bestTimesToCall: CreationOptional<string>
   declare preferredContact: CreationOptional<ContactPreference>
-  declare createdAt: CreationOptional<Date>
-  declare updatedAt: CreationOptional<Date>
   declare user?: NonAttribute<User>
 
   static initModel(sequelize: Sequelize) {
-    Patient.init({
-      ...idColumn(),
+    Patient.initRecord(sequelize, 'patients', {
       clinicNumber: { type: DataTypes.STRING, allowNull: false, unique: true, field: 'clinic_number' },
       dateOfBirth: { type: DataTypes.DATEONLY, allowNull: false, field: 'date_of_birth' },
       riskProfile: { type: DataTypes.JSON, allowNull: true, field: 'risk_profile' },
       phones: { type: DataTypes.JSON, allowNull: false, defaultValue: [] },
       bestTimesToCall: { type: DataTypes.STRING(200), allowNull: false, defaultValue: '', field: 'best_times_to_call' },
       preferredContact: { type: DataTypes.STRING, allowNull: false, defaultValue: 'phone', field: 'preferred_contact' },
-      ...createdAtColumn(),
-      ...updatedAtColumn(),
-    }, { sequelize, tableName: 'patients' })
+    })
   }
 }

@@ -1,15 +1,14 @@
-import { DataTypes, Model } from 'sequelize'
+import { DataTypes } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
 import type { TriageLevel, TriageReason } from '#shared/triage/rules'
 import type { Disposition, TriageItemStatus, TriageSource } from '#shared/triage/schemas'
 import type { DiaryEntry } from './diary-entry'
 import type { Patient } from './patient'
 import type { User } from './user'
-import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
+import { RecordModel, statusColumn } from './columns'
 
 /** One piece of work in the nurses' triage queue. */
-export class TriageItem extends Model<InferAttributes<TriageItem>, InferCreationAttributes<TriageItem>> {
-  declare id: CreationOptional<number>
+export class TriageItem extends RecordModel<InferAttributes<TriageItem>, InferCreationAttributes<TriageItem>> {
   declare patientId: ForeignKey<Patient['id']>
   declare source: TriageSource
   /** Unique per source occurrence (diary:<id>, overdue:<patient>:<due date>): never twice. */
@@ -23,25 +22,20 @@ export class TriageItem extends Model<InferAttributes<TriageItem>, InferCreation
   declare disposition: Disposition | null
   declare escalatedAt: Date | null
   declare closedAt: Date | null
-  declare createdAt: CreationOptional<Date>
-  declare updatedAt: CreationOptional<Date>
   declare patient?: NonAttribute<Patient>
   declare assignee?: NonAttribute<User | null>
 
   static initModel(sequelize: Sequelize) {
-    TriageItem.init({
-      ...idColumn(),
+    TriageItem.initRecord(sequelize, 'triage_items', {
       source: { type: DataTypes.STRING, allowNull: false },
       sourceKey: { type: DataTypes.STRING, allowNull: false, unique: true, field: 'source_key' },
       level: { type: DataTypes.STRING, allowNull: false },
       reasons: { type: DataTypes.JSON, allowNull: false },
       respondBy: { type: DataTypes.DATE, allowNull: true, field: 'respond_by' },
-      status: { type: DataTypes.STRING, allowNull: false, defaultValue: 'new' },
+      ...statusColumn('new'),
       disposition: { type: DataTypes.STRING, allowNull: true },
       escalatedAt: { type: DataTypes.DATE, allowNull: true, field: 'escalated_at' },
       closedAt: { type: DataTypes.DATE, allowNull: true, field: 'closed_at' },
-      ...createdAtColumn(),
-      ...updatedAtColumn(),
-    }, { sequelize, tableName: 'triage_items' })
+    })
   }
 }

@@ -1,11 +1,10 @@
-import { DataTypes, Model } from 'sequelize'
+import { DataTypes } from 'sequelize'
 import type { CreationOptional, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
 import type { Language, Role } from '#shared/auth/roles'
 import type { Patient } from './patient'
-import { createdAtColumn, idColumn, updatedAtColumn } from './columns'
+import { RecordModel } from './columns'
 
-export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
-  declare id: CreationOptional<number>
+export class User extends RecordModel<InferAttributes<User>, InferCreationAttributes<User>> {
   declare email: string
   declare passwordHash: string | null
   declare role: Role
@@ -21,13 +20,10 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare totpLastStep: CreationOptional<number | null>
   declare totpFailures: CreationOptional<number>
   declare totpFailedAt: CreationOptional<Date | null>
-  declare createdAt: CreationOptional<Date>
-  declare updatedAt: CreationOptional<Date>
   declare patient?: NonAttribute<Patient | null>
 
   static initModel(sequelize: Sequelize) {
-    User.init({
-      ...idColumn(),
+    User.initRecord(sequelize, 'users', {
       email: { type: DataTypes.STRING, allowNull: false, unique: true },
       passwordHash: { type: DataTypes.STRING, allowNull: true, field: 'password_hash' },
       role: { type: DataTypes.STRING, allowNull: false },
@@ -41,8 +37,6 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
       totpLastStep: { type: DataTypes.INTEGER, allowNull: true, field: 'totp_last_step' },
       totpFailures: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0, field: 'totp_failures' },
       totpFailedAt: { type: DataTypes.DATE, allowNull: true, field: 'totp_failed_at' },
-      ...createdAtColumn(),
-      ...updatedAtColumn(),
-    }, { sequelize, tableName: 'users' })
+    })
   }
 }
