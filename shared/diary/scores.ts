@@ -14,6 +14,7 @@ export type HotFlushSeverity = (typeof HOT_FLUSH_SEVERITIES)[number]
 export const HOT_FLUSH_INTERFERENCE = ['none', 'usual-activities', 'self-care'] as const
 export type HotFlushInterference = (typeof HOT_FLUSH_INTERFERENCE)[number]
 
+/** Fatigue in the words of CTCAE v5.0's grades (none, 1, 2, 3: gradeFatigue). */
 export const FATIGUE_LEVELS = ['none', 'eased-by-rest', 'limits-usual-activities', 'limits-self-care'] as const
 export type FatigueLevel = (typeof FATIGUE_LEVELS)[number]
 
@@ -107,6 +108,23 @@ export function phq2(interest: number, down: number): Phq2Result {
  * CTCAE v5.0 (NCI, 2017) style grades. Grades 4 and 5 are not reachable from a diary.
  */
 
+/** The answers at grades 0, 1, 2 and 3, one each. */
+type GradeRow<Answer> = readonly [Answer, Answer, Answer, Answer]
+
+/**
+ * The diary's one-choice answers that carry a grade, each row listing the answers at grades
+ * 0, 1, 2 and 3 in turn: an answer's grade is its place in its row. The rows' sources are
+ * at gradeFatigue and gradeConstipation.
+ */
+const GRADE_ROWS = {
+  fatigue: FATIGUE_LEVELS,
+  constipation: ['none', 'occasional', 'persistent', 'no-movement-despite-laxatives'],
+} as const satisfies { fatigue: GradeRow<FatigueLevel>, constipation: GradeRow<ConstipationLevel> }
+
+function gradeInRow<K extends keyof typeof GRADE_ROWS>(row: K, answer: (typeof GRADE_ROWS)[K][number]): CtcaeGrade {
+  return (GRADE_ROWS[row] as readonly string[]).indexOf(answer) as CtcaeGrade
+}
+
 /**
  * Hot flashes, CTCAE v5.0: 1 mild; 2 moderate, limiting instrumental ADL (usual
  * activities); 3 severe, limiting self-care ADL. The grade follows how much the flushes
@@ -129,13 +147,7 @@ export function gradeHotFlashes(hotFlushes: {
  * instrumental ADL; 3 not relieved by rest, limiting self-care ADL.
  */
 export function gradeFatigue(fatigue: FatigueLevel): CtcaeGrade {
-  const grades: Record<FatigueLevel, CtcaeGrade> = {
-    'none': 0,
-    'eased-by-rest': 1,
-    'limits-usual-activities': 2,
-    'limits-self-care': 3,
-  }
-  return grades[fatigue]
+  return gradeInRow('fatigue', fatigue)
 }
 
 /**
@@ -178,13 +190,7 @@ export function gradeDiarrhoea(extraStoolsPerDay: number): CtcaeGrade {
  * The diary's last choice ("no movement despite laxatives") is placed at grade 3 (our design).
  */
 export function gradeConstipation(level: ConstipationLevel): CtcaeGrade {
-  const grades: Record<ConstipationLevel, CtcaeGrade> = {
-    'none': 0,
-    'occasional': 1,
-    'persistent': 2,
-    'no-movement-despite-laxatives': 3,
-  }
-  return grades[level]
+  return gradeInRow('constipation', level)
 }
 
 /** A thermometer reading in degrees Celsius: °C = (°F - 32) x 5 / 9 (the definition of the scales). */
