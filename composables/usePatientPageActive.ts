@@ -5,7 +5,8 @@ import type { Ref } from 'vue'
  * A patient's own page (he or a caregiver helping him): its title (the string `titleKey`, or
  * for a caregiver `caregiverTitleKey` with the man's name when given), set as the page's, and whose
  * record is open, the fetch options for one part of it (keyed by his id, fetched only when
- * there is someone), and `gate(status)` for AppLoadState (v-bind): "nobody to show" without
+ * there is someone), the clinic's public facts (`clinic`: its zone and emergency number, already
+ * loaded by the layout), and `gate(status)` for AppLoadState (v-bind): "nobody to show" without
  * a record, "loading" until a switched-to man's own data arrives. Synchronous, and given the
  * awaited `useActivePatient()` record: the page awaits at its top level, where Nuxt keeps
  * its context for the useHead and watch calls made here (after an await inside a composable
@@ -26,5 +27,6 @@ export function usePatientPageActive(record: Awaited<ReturnType<typeof useActive
     const switching = useStillShowingPrevious(patientId, status)
     return computed(() => ({ missing: active.value ? undefined : t('diary.new.noPatient'), loading: switching.value }))
   }
-  return { ...record, title, partOptions, gate }
+  const { data: clinic } = useClinic()
+  return { ...record, title, clinic, partOptions, gate }
 }
