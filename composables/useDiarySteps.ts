@@ -1,3 +1,4 @@
+import type { InjectionKey } from 'vue'
 import { diaryEntrySchema } from '#shared/diary/schemas'
 
 /**
@@ -44,6 +45,43 @@ export function useDiarySentTime(sentAt: () => string | null) {
     const iso = sentAt()
     return iso ? d(new Date(iso), { key: 'time', timeZone: clinic.value.timeZone }) : ''
   })
+}
+
+/** The message at a form path ("bowel.extraStoolsPerDay"), for the questions of the step shown. */
+type DiaryErrorAt = (path: string) => string | undefined
+const DIARY_ERROR_AT: InjectionKey<DiaryErrorAt> = Symbol('diary error at')
+
+/** Gives the questions below (the step shown) the messages of the diary check. */
+export function provideDiaryErrors(errorAt: DiaryErrorAt) {
+  provide(DIARY_ERROR_AT, errorAt)
+}
+
+/** The message at a form path; none outside a diary form. */
+export function useDiaryError(): DiaryErrorAt {
+  return inject(DIARY_ERROR_AT, () => undefined)
+}
+
+/** The id of the question asking the answer at a form path: "bowel.extraStoolsPerDay" is "diary-bowel-extraStoolsPerDay". */
+export function diaryQuestionId(path: string) {
+  return `diary-${path.replaceAll('.', '-')}`
+}
+
+/**
+ * A question asked for the answer at a form path: its id (from the path, unless it names its
+ * own) and the message at that path, or the one it is given.
+ */
+export function useDiaryQuestion(props: { path: string, id?: string, error?: string }) {
+  const errorAt = useDiaryError()
+  return {
+    id: computed(() => props.id ?? diaryQuestionId(props.path)),
+    error: computed(() => props.error ?? errorAt(props.path)),
+  }
+}
+
+/** A question's answers worded from the locale: the label of each value is `${wording}.${value}`. */
+export function useDiaryOptions<V extends string | number>(values: readonly V[], wording: string) {
+  const { t } = useI18n()
+  return computed(() => values.map(value => ({ value, label: t(`${wording}.${value}`) })))
 }
 
 /** Form paths as the step components ask for them: "urinary.ipss.items[2]". */
