@@ -3,8 +3,9 @@ import { seriousAxeViolations, setupBrowser, signInAs, url } from '../support/br
 
 await setupBrowser()
 
-// Browser tests share one server: these use Elias (LPU-1001, his appointment) and
-// Howard (LPU-1011, overdue), whom no other browser test changes.
+// Browser tests share one server: these use Elias (LPU-1001, his appointment), Howard
+// (LPU-1011, overdue) and Franklin's appointment (LPU-1005, booked), which no other browser
+// test changes (the diary test writes Franklin's diary, not his schedule).
 
 describe('the injection schedule in the browser', () => {
   it('the demo patient sees his next injection on Today, confirms the appointment, and its state changes', async () => {
@@ -53,6 +54,27 @@ describe('the injection schedule in the browser', () => {
     await page.getByRole('heading', { level: 1, name: 'Due list' }).waitFor()
     await expect.poll(() => page.locator('[data-patient="LPU-1011"]').count(), { timeout: 10_000 }).toBe(0)
     await expect.poll(() => page.locator('section[data-group="overdue"] tbody tr').count(), { timeout: 10_000 }).toBe(overdueBefore - 1)
+    await page.close()
+  })
+
+  it('after he asks for another time, the card says the request is with the clinic and no longer offers Confirm (issue 17)', async () => {
+    const page = await signInAs('franklin@demo.tidewell.test')
+    const card = page.locator('section[aria-labelledby="next-injection-heading"]')
+    await card.getByRole('button', { name: 'Confirm this appointment' }).waitFor()
+    await card.getByRole('button', { name: 'Ask for another time' }).click()
+    const form = card.locator('form[aria-labelledby="change-request-heading"]')
+    const today = await page.evaluate(() => new Date().toISOString().slice(0, 10))
+    const inTwoWeeks = new Date(Date.parse(`${today}T12:00:00Z`) + 14 * 86_400_000).toISOString().slice(0, 10)
+    await form.getByLabel('First choice').fill(inTwoWeeks)
+    await form.getByRole('button', { name: 'Send request' }).click()
+    await card.getByText('Your request was sent to the clinic.', { exact: false }).waitFor()
+    await expect.poll(() => card.getByRole('button', { name: 'Confirm this appointment' }).count(), { timeout: 10_000 }).toBe(0)
+    await expect.poll(() => card.getByRole('button', { name: 'Ask for another time' }).count(), { timeout: 10_000 }).toBe(0)
+    expect(await seriousAxeViolations(page)).toEqual([])
+    // Still so after a reload: it is the stored state, not the page's memory.
+    await page.reload()
+    await card.getByRole('heading', { name: 'Next injection' }).waitFor()
+    expect(await card.getByRole('button', { name: 'Confirm this appointment' }).count()).toBe(0)
     await page.close()
   })
 })
