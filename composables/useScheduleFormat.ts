@@ -18,13 +18,12 @@ const DEFAULT_REGIMEN_KEYS: Record<string, string> = {
  */
 export function useScheduleFormat() {
   const { t, d, n } = useI18n()
-  const clinicTime = useClinicTime()
   return {
     /** A calendar date, e.g. "December 8, 2026". */
     day: (date: string, key: 'short' | 'long' | 'weekday' = 'long') => d(new Date(`${date}T12:00:00Z`), { key, timeZone: 'UTC' }),
-    /** An instant in the clinic's time zone (the API sends the zone with the data), through useClinicTime. */
+    /** An instant in the clinic's time zone (the API sends the zone with the data). */
     instant: (iso: string, timeZone: string, key: 'dateTime' | 'time' | 'weekday' | 'long' | 'short' = 'dateTime') =>
-      clinicTime.instant(iso, key, timeZone),
+      d(new Date(iso), { key, timeZone }),
     /** How often a regimen's injection comes, one way everywhere: in weeks when whole ("every 12 weeks"), else in days. */
     every: (intervalDays: number) => (intervalDays % 7 === 0
       ? t('regimens.everyWeeks', { count: n(intervalDays / 7) }, intervalDays / 7)
