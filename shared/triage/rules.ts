@@ -96,6 +96,7 @@ export const TRIAGE_SOURCES = {
   niceSevereBack: 'NICE guideline NG234 (2023): severe unremitting, night or straining spinal pain needs review within 24 hours',
   flare: 'GnRH-agonist depot prescribing information, Warnings (tumour flare); common practice',
   commonPractice: 'Common practice (emergency care)',
+  contraindication: 'GnRH-agonist depot prescribing information, Contraindications: hypersensitivity to GnRH, GnRH-agonist analogues or any of the product\'s other ingredients',
   selfHarm: 'Kroenke K et al., Med Care 2003 (PHQ-2); any thought of self-harm is an emergency: common practice',
   serlin: 'Serlin RC et al., Pain 1995 (7-10 is severe); new or worse: common practice',
   serlinSevere: 'Serlin RC et al., Pain 1995 (7-10 is severe); at least a routine review whether or not new: common practice',

@@ -2,7 +2,7 @@ import { z } from 'zod'
 import { LEVELS } from './rules'
 import { idNumber, intQuery, safeText } from '../common/text'
 
-export const TRIAGE_SOURCES = ['diary', 'overdue-injection', 'lab'] as const
+export const TRIAGE_SOURCES = ['diary', 'overdue-injection', 'lab', 'visit'] as const
 export type TriageSource = (typeof TRIAGE_SOURCES)[number]
 
 export const TRIAGE_STATUSES = ['new', 'in-progress', 'waiting', 'closed'] as const

@@ -78,6 +78,15 @@ const ROUTES: Route[] = [
   ['GET', '/api/patients/:id/access-history', 'access-history.read'],
   ['GET', '/api/patients/:id/labs', 'patient.read'],
   ['POST', '/api/patients/:id/labs', 'labs.record'],
+  ['POST', '/api/patients/:id/visits', 'injection.record'],
+  ['GET', '/api/patients/:id/visits/:visitId', 'injection.record'],
+  ['POST', '/api/patients/:id/visits/:visitId/checks', 'injection.record'],
+  ['POST', '/api/patients/:id/visits/:visitId/kits', 'injection.record'],
+  ['POST', '/api/patients/:id/visits/:visitId/kits/:kitId/mixed', 'injection.record'],
+  ['POST', '/api/patients/:id/visits/:visitId/kits/:kitId/discard', 'injection.record'],
+  ['POST', '/api/patients/:id/visits/:visitId/give', 'injection.record'],
+  ['POST', '/api/patients/:id/visits/:visitId/not-given', 'injection.record'],
+  ['POST', '/api/patients/:id/visits/:visitId/after', 'injection.record'],
   ['GET', '/api/appointments/:id/calendar.ics', 'patient.read'],
   ['POST', '/api/appointments/:id/confirm', 'appointment.respond', { ok: 200 }],
   ['POST', '/api/appointments/:id/change-request', 'appointment.respond'],
@@ -108,6 +117,9 @@ const PARAMS: [RegExp, (allowed: boolean) => Promise<number> | number][] = [
   [/^\/api\/change-requests\/:id/, () => fixed.changeRequest!],
   [/^\/api\/triage\/:id/, () => fixed.triageItem!],
   [/:entryId/, () => fixed.diaryEntry!],
+  [/:visitId/, () => fixed.visit!],
+  // Every kit route validates its body first: an empty one answers 400 before the kit is looked for.
+  [/:kitId/, () => 1],
   [/:grantId/, allowed => (allowed ? freshGrant() : fixed.grant!)],
   [/:invitationId/, allowed => (allowed ? freshInvitation() : fixed.invitation!)],
 ]
@@ -172,6 +184,10 @@ beforeAll(async () => {
   fixed.changeRequest = schedule.nextAppointment.openRequest.id
   const queue = (await people.nurse.get('/api/triage')).body.items as { id: number, patientId: number }[]
   fixed.triageItem = queue.find(item => item.patientId === patientId)!.id
+  // A walk-in visit for him, for the routes about one visit.
+  const visit = await people.nurse.post(`/api/patients/${patientId}/visits`, { appointmentId: null })
+  expect(visit.status).toBe(201)
+  fixed.visit = visit.body.id
 })
 afterAll(async () => {
   await app?.stop()

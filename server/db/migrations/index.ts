@@ -11,6 +11,7 @@ import * as sessions from './0010-sessions'
 import * as throttle from './0011-throttle'
 import * as secondFactor from './0012-second-factor'
 import * as auditOutcomes from './0013-audit-outcomes'
+import * as visits from './0014-visits'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -30,4 +31,5 @@ export const migrations = [
   { name: '0011-throttle', ...throttle },
   { name: '0012-second-factor', ...secondFactor },
   { name: '0013-audit-outcomes', ...auditOutcomes },
+  { name: '0014-visits', ...visits },
 ]

@@ -20,8 +20,9 @@ import { TriageEvent } from './triage-event'
 import { TriageItem } from './triage-item'
 import { User } from './user'
 import { UserSession } from './user-session'
+import { Visit, VisitKit } from './visit'
 
-export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TotpRecoveryCode, TriageEvent, TriageItem, User, UserSession }
+export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TotpRecoveryCode, TriageEvent, TriageItem, User, UserSession, Visit, VisitKit }
 
 /** Registers every model and its associations on one connection. */
 export function initModels(sequelize: Sequelize) {
@@ -46,6 +47,9 @@ export function initModels(sequelize: Sequelize) {
   registerDiaryAndTriageAssociations()
   LabResult.initModel(sequelize)
   registerLabAssociations()
+  Visit.initModel(sequelize)
+  VisitKit.initModel(sequelize)
+  registerVisitAssociations()
 }
 
 /** The injection schedule: regimens, injections, appointments and change requests. */
@@ -85,4 +89,23 @@ function registerLabAssociations() {
   Patient.hasMany(LabResult, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'labResults' })
   LabResult.belongsTo(Patient, { foreignKey: { name: 'patientId', field: 'patient_id', allowNull: false }, as: 'patient' })
   LabResult.belongsTo(User, { foreignKey: { name: 'enteredByUserId', field: 'entered_by_user_id', allowNull: false }, as: 'enteredBy' })
+}
+
+/** The injection visit: its patient, appointment, kits, injection and the staff who worked it. */
+function registerVisitAssociations() {
+  const patientKey = { name: 'patientId', field: 'patient_id', allowNull: false }
+  const userKey = (name: string, allowNull: boolean) => ({ name, field: name.replace(/[A-Z]/g, c => `_${c.toLowerCase()}`), allowNull })
+  Visit.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
+  Visit.belongsTo(Appointment, { foreignKey: { name: 'appointmentId', field: 'appointment_id', allowNull: true }, as: 'appointment' })
+  Visit.belongsTo(Appointment, { foreignKey: { name: 'nextAppointmentId', field: 'next_appointment_id', allowNull: true }, as: 'nextAppointment' })
+  Visit.belongsTo(Injection, { foreignKey: { name: 'injectionId', field: 'injection_id', allowNull: true }, as: 'injection' })
+  Visit.belongsTo(TriageItem, { foreignKey: { name: 'triageItemId', field: 'triage_item_id', allowNull: true }, as: 'triageItem' })
+  Visit.belongsTo(User, { foreignKey: userKey('openedByUserId', false), as: 'openedBy' })
+  Visit.belongsTo(User, { foreignKey: userKey('checkedByUserId', true), as: 'checkedBy' })
+  Visit.belongsTo(User, { foreignKey: userKey('closedByUserId', true), as: 'closedBy' })
+  Visit.hasMany(VisitKit, { foreignKey: { name: 'visitId', field: 'visit_id', allowNull: false }, as: 'kits' })
+  VisitKit.belongsTo(Visit, { foreignKey: { name: 'visitId', field: 'visit_id', allowNull: false }, as: 'visit' })
+  VisitKit.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
+  VisitKit.belongsTo(Regimen, { foreignKey: { name: 'regimenId', field: 'regimen_id', allowNull: false }, as: 'regimen' })
+  VisitKit.belongsTo(User, { foreignKey: userKey('inspectedByUserId', false), as: 'inspectedBy' })
 }

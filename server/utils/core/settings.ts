@@ -17,6 +17,10 @@ export const DEFAULT_SETTINGS = {
   nursesOnDuty: [] as string[],
   clinicianAlertList: [] as string[],
   urgentResponseHours: 4,
+  // The depot suspension is to be given right after mixing (prescribing information, section
+  // 2; from memory): past this many minutes from mixing to injection the visit warns and asks
+  // the nurse to confirm. The number is the clinic's to set (common practice, no source).
+  mixToInjectMinutes: 30,
   routineResponseWorkingDays: 3,
   // Sign-out after this many minutes without a request (server/utils/auth/sessions.ts). Common
   // practice, not a rule: about an hour on a patient's own device, 15 minutes on shared

@@ -4,7 +4,8 @@ import type { Transaction } from 'sequelize'
 import { localDate } from '#shared/schedule/rules'
 import { OPEN_APPOINTMENT_STATUSES } from '#shared/schedule/statuses'
 import type { AppointmentView, ScheduleView } from '#shared/schedule/views'
-import { Appointment, AppointmentChangeRequest } from '../../db/models'
+import type { Patient } from '../../db/models'
+import { Appointment, AppointmentChangeRequest, User } from '../../db/models'
 import type { PatientAccess } from '../auth/access'
 import type { ScheduleClock } from './clock'
 import { clinicClockTime, startOfClinicDay } from './clock'
@@ -118,4 +119,69 @@ export function assertAppointmentOpen(appointment: Appointment, now: Date) {
     throw createError({ statusCode: 409, message: 'errors.schedule.appointmentClosed' })
   }
   if (appointment.startsAt <= now) throw createError({ statusCode: 409, message: 'errors.schedule.appointmentPast' })
+}
+
+/** An appointment to book: for whom, by whom, when, how long and where. */
+export interface Booking {
+  patient: Patient
+  user: { id: number }
+  startsAt: Date
+  durationMinutes: number
+  place: string
+  /** The open appointment the nurse saw (null: none); undefined: do not check. */
+  replaces?: number | null
+}
+
+/**
+ * Books the patient's next appointment inside the caller's transaction. It replaces any
+ * open appointment still ahead of him, and the patient gets an e-mail with the calendar
+ * file, in his language. The open ones are cancelled by a conditional update (still open
+ * when it runs, or 409 and nothing written), so an answer to one of their requests that
+ * comes after finds it withdrawn (409) instead of moving a cancelled appointment. With
+ * `replaces`, a booking made while another nurse booked or moved it answers 409 and
+ * writes nothing: one booking, one e-mail.
+ */
+export async function bookAppointment(booking: Booking, clock: ScheduleClock, transaction: Transaction): Promise<Appointment> {
+  const patientUser = await User.findByPk(booking.patient.userId, { transaction })
+  const replaced = await Appointment.findAll({
+    where: { patientId: booking.patient.id, ...openFromToday(clock) },
+    transaction,
+  })
+  if (booking.replaces !== undefined) {
+    const seen = booking.replaces === null ? [] : [booking.replaces]
+    const open = replaced.map(old => old.id)
+    if (seen.length !== open.length || !seen.every(id => open.includes(id))) {
+      throw createError({ statusCode: 409, message: 'errors.schedule.appointmentChanged' })
+    }
+  }
+  if (replaced.length) {
+    const ids = replaced.map(old => old.id)
+    const [cancelled] = await Appointment.update({ status: 'cancelled' }, {
+      where: { id: { [Op.in]: ids }, patientId: booking.patient.id, status: { [Op.in]: [...OPEN_APPOINTMENT_STATUSES] } },
+      transaction,
+    })
+    if (cancelled !== ids.length) throw createError({ statusCode: 409, message: 'errors.schedule.appointmentChanged' })
+    await AppointmentChangeRequest.update({ status: 'withdrawn' }, { where: { appointmentId: { [Op.in]: ids }, patientId: booking.patient.id, status: 'open' }, transaction })
+  }
+  const created = await Appointment.create({
+    patientId: booking.patient.id,
+    startsAt: booking.startsAt,
+    durationMinutes: booking.durationMinutes,
+    place: booking.place,
+    confirmedAt: null,
+    confirmedByUserId: null,
+    createdByUserId: booking.user.id,
+  }, { transaction })
+  if (patientUser?.active) {
+    await enqueueMail({
+      to: patientUser.email,
+      template: 'appointmentBooked',
+      language: patientUser.language,
+      params: { name: patientUser.name, when: formatAppointmentTime(booking.startsAt, patientUser.language, clock.settings.timeZone), place: booking.place },
+      linkPath: '/today',
+      attachments: [calendarAttachment(created, { language: patientUser.language, settings: clock.settings })],
+      dedupeKey: `appointment-booked:${created.id}`,
+    }, transaction)
+  }
+  return created
 }
