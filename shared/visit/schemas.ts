@@ -18,7 +18,7 @@ const note = (max: number) => safeText({ multiLine: true }).trim().max(max, mess
 
 /** Open a visit: for a booked appointment, or a walk-in (no appointment). */
 export const openVisitSchema = z.object({
-  appointmentId: idNumber(message('appointment')).nullable({ message: message('appointment') }),
+  appointmentId: z.union([idNumber(message('appointment')), z.null()], { errorMap: () => ({ message: message('appointment') }) }),
 }).strict()
 
 /**
