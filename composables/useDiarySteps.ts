@@ -2,24 +2,25 @@ import type { InjectionKey } from 'vue'
 import { diaryEntrySchema } from '#shared/diary/schemas'
 
 /**
- * The weekly diary's steps in order, with the top-level answers each one asks. The review
+ * The weekly diary's steps in order, with the top-level answers each one asks, and whether
+ * the step opens with an intro under its heading (`diary.<id>.intro`). The review
  * step asks nothing; it shows every answer with a way back to its step. The areas added in
  * rules version 3 (infection, bowel, falls, allergy, mind, headache) share one step: a
  * screening question each, the details only after a yes.
  */
 export const DIARY_STEPS = [
-  { id: 'rightNow', sections: ['rightNow'] },
-  { id: 'hotFlushes', sections: ['hotFlushes'] },
+  { id: 'rightNow', sections: ['rightNow'], intro: true },
+  { id: 'hotFlushes', sections: ['hotFlushes'], intro: true },
   { id: 'pain', sections: ['pain'] },
   { id: 'urinary', sections: ['urinary'] },
   { id: 'heart', sections: ['heart'] },
   { id: 'sugar', sections: ['sugar'] },
   { id: 'otherChanges', sections: ['infection', 'bowel', 'falls', 'allergy', 'mind', 'headache'] },
   { id: 'moodFatigue', sections: ['mood', 'fatigue'] },
-  { id: 'injectionSite', sections: ['injectionSite'] },
+  { id: 'injectionSite', sections: ['injectionSite'], intro: true },
   { id: 'note', sections: ['note'] },
-  { id: 'review', sections: [] },
-] as const satisfies readonly { id: string, sections: readonly string[] }[]
+  { id: 'review', sections: [], intro: true },
+] as const satisfies readonly { id: string, sections: readonly string[], intro?: true }[]
 
 export type DiaryStepId = (typeof DIARY_STEPS)[number]['id']
 
@@ -31,10 +32,15 @@ export function diaryStepOfPath(path: string): number {
   return DIARY_STEPS.findIndex(step => (step.sections as readonly string[]).includes(section))
 }
 
-/** The steps with their titles in the current language. */
+/** The steps with their titles and intros ('' for none) in the current language. */
 export function useDiarySteps() {
   const { t } = useI18n()
-  return computed(() => DIARY_STEPS.map((step, index) => ({ ...step, index, title: t(`diary.steps.${step.id}`) })))
+  return computed(() => DIARY_STEPS.map((step, index) => ({
+    ...step,
+    index,
+    title: t(`diary.steps.${step.id}`),
+    intro: 'intro' in step ? t(`diary.${step.id}.intro`) : '',
+  })))
 }
 
 /** An instant (the right-now report's delivery) as a time of day in the clinic's zone; '' when there is none. */
