@@ -84,6 +84,10 @@ describe('a whole visit, with the carton scanned', () => {
     // Last dose 28 days ago, every 28 days: due today, inside the window.
     expect(opened.body.window).toEqual({ position: 'inside', daysFromDue: 0 })
     expect(opened.body.patient).toMatchObject({ name: 'Desmond Laurier', dateOfBirth: '1957-05-05' })
+    // The demo books him for this morning: the visit is for that appointment.
+    const booked = (await nurse.get(`/api/patients/${ids['LPU-1009']}/schedule`)).body.nextAppointment
+    expect(booked.localDate).toBe(today)
+    expect(opened.body.appointmentId).toBe(booked.id)
     // A second "he is here" (another nurse, a double click) finds the same visit.
     const again = await nurse.post(base('LPU-1009'), { appointmentId: null })
     expect(again.status).toBe(200)
@@ -140,7 +144,7 @@ describe('a whole visit, with the carton scanned', () => {
 
     // The day's list shows him as given.
     const row = (await nurse.get('/api/visits/today')).body.rows.find((r: { visitId: number }) => r.visitId === opened.body.id)
-    expect(row).toMatchObject({ appointment: null, state: 'given', patient: { clinicNumber: 'LPU-1009' } })
+    expect(row).toMatchObject({ appointment: { id: booked.id }, state: 'given', patient: { clinicNumber: 'LPU-1009' } })
   })
 })
 
@@ -302,9 +306,15 @@ describe('the day\'s injection list', () => {
     expect(booked.map(r => r.appointment!.startsAt)).toEqual([...booked.map(r => r.appointment!.startsAt)].sort())
     expect(rows.filter(r => !r.appointment).every(r => r.visitId !== null)).toBe(true)
     expect(rows.findIndex(r => !r.appointment)).toBeGreaterThanOrEqual(booked.length)
-    const walkIn = (clinicNumber: string) => rows.find(r => !r.appointment && (r as unknown as { patient: { clinicNumber: string } }).patient.clinicNumber === clinicNumber)?.state
-    // Desmond was given his dose, Ramón declined, Augustín was stopped (hypersensitivity).
-    expect([walkIn('LPU-1009'), walkIn('LPU-1007'), walkIn('LPU-1010')]).toEqual(['given', 'not-given', 'not-given'])
+    const stateOf = (clinicNumber: string) => rows.filter(r => (r as unknown as { patient: { clinicNumber: string } }).patient.clinicNumber === clinicNumber).map(r => [r.appointment ? 'booked' : 'walk-in', r.state])
+    // The demo books Desmond, Odell and Howard for today. Desmond and Howard were given their
+    // dose (their visits stand for their appointments); Odell has not come yet. Ramón declined,
+    // Augustín was stopped (hypersensitivity): walk-ins.
+    expect(stateOf('LPU-1009')).toEqual([['booked', 'given']])
+    expect(stateOf('LPU-1011')).toEqual([['booked', 'given']])
+    expect(stateOf('LPU-1004')).toEqual([['booked', 'expected']])
+    expect(stateOf('LPU-1007')).toEqual([['walk-in', 'not-given']])
+    expect(stateOf('LPU-1010')).toEqual([['walk-in', 'not-given']])
   })
 
   it('is for nurses and clinicians only', async () => {

@@ -7,7 +7,7 @@ import { Appointment, Patient, User, Visit } from '../../db/models'
 /**
  * Today's injection list (nurses and clinicians): the appointments of the clinic's day, in
  * time order, each with its state (expected, here, given, not given), then the walk-ins.
- * Cancelled appointments are left out. Three queries, one audit line per patient listed.
+ * Cancelled appointments are left out. Two queries, one audit line per patient listed.
  */
 export default defineEventHandler(async (event) => {
   const actor = await requireRole(event, ['nurse', 'clinician'])
@@ -24,12 +24,15 @@ export default defineEventHandler(async (event) => {
     }),
     Visit.findAll({ where: { visitDate: clock.today }, include: [patientInclude], order: [['id', 'ASC']] }),
   ])
-  // The latest visit for an appointment (a second try after a stopped one) decides its state.
+  // The latest visit for an appointment (a second try after a stopped one) decides its state;
+  // a visit opened as a walk-in for a man booked today stands for his appointment.
   const byAppointment = new Map(visits.filter(v => v.appointmentId).map(v => [v.appointmentId!, v]))
+  const byPatient = new Map(visits.map(v => [v.patientId, v]))
+  const booked = new Set(appointments.map(a => a.patientId))
   const person = (patient: Patient | undefined) => ({ id: patient?.id ?? 0, name: patient?.user?.name ?? '', clinicNumber: patient?.clinicNumber ?? '' })
   const rows: VisitListRow[] = [
     ...appointments.map((appointment) => {
-      const visit = byAppointment.get(appointment.id) ?? null
+      const visit = byAppointment.get(appointment.id) ?? byPatient.get(appointment.patientId) ?? null
       return {
         patient: person(appointment.patient),
         appointment: { id: appointment.id, startsAt: appointment.startsAt.toISOString(), place: appointment.place },
@@ -37,7 +40,7 @@ export default defineEventHandler(async (event) => {
         state: listStateOf(visit),
       }
     }),
-    ...visits.filter(v => !v.appointmentId).map(visit => ({ patient: person(visit.patient), appointment: null, visitId: visit.id, state: listStateOf(visit) })),
+    ...visits.filter(v => !v.appointmentId && !booked.has(v.patientId)).map(visit => ({ patient: person(visit.patient), appointment: null, visitId: visit.id, state: listStateOf(visit) })),
   ]
   await recordListAudit(event, { actor, action: 'visit-list.read', resource: `${event.method} ${event.path}` }, [...new Set(rows.map(r => r.patient.id))])
   return { today: clock.today, timeZone: tz, rows }

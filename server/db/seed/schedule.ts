@@ -17,7 +17,8 @@ interface DemoSchedule {
   /** Days from the last injection to today; null for no injection yet. */
   lastDaysAgo: number | null
   injections: number
-  appointment?: { time: string, status: 'booked' | 'confirmed' | 'change-requested', onDay?: number }
+  /** onDay: that many days from today (the next working day from it); today: today, whatever the day. */
+  appointment?: { time: string, status: 'booked' | 'confirmed' | 'change-requested', onDay?: number, today?: true }
 }
 
 const PLACE = 'Larkspur Point Urology, injection room 2, 410 Quarry Lane'
@@ -29,8 +30,8 @@ const DEMO_SCHEDULES: DemoSchedule[] = [
   { clinicNumber: 'LPU-1002', regimen: '1-month depot', lastDaysAgo: 26, injections: 6, appointment: { time: '09:30', status: 'booked' } },
   // Overdue by 11 days, no appointment.
   { clinicNumber: 'LPU-1003', regimen: '3-month depot', lastDaysAgo: 95, injections: 3 },
-  // Late by 3 days, no appointment.
-  { clinicNumber: 'LPU-1004', regimen: '6-month depot', lastDaysAgo: 171, injections: 2 },
+  // Late by 3 days, booked for today (the day's injection list).
+  { clinicNumber: 'LPU-1004', regimen: '6-month depot', lastDaysAgo: 171, injections: 2, appointment: { time: '11:30', status: 'booked', today: true } },
   // First injection 10 days ago: in his flare watch; due in 18 days.
   { clinicNumber: 'LPU-1005', regimen: '1-month depot', lastDaysAgo: 10, injections: 1, appointment: { time: '11:00', status: 'booked' } },
   // Not started: regimen set, first injection booked.
@@ -39,12 +40,12 @@ const DEMO_SCHEDULES: DemoSchedule[] = [
   { clinicNumber: 'LPU-1007', regimen: '4-month depot', lastDaysAgo: 100, injections: 3, appointment: { time: '13:30', status: 'confirmed' } },
   // Upcoming, due in 44 days.
   { clinicNumber: 'LPU-1008', regimen: '3-month depot', lastDaysAgo: 40, injections: 5 },
-  // Due today, no appointment.
-  { clinicNumber: 'LPU-1009', regimen: '1-month depot', lastDaysAgo: 28, injections: 8 },
+  // Due today, confirmed for this morning (the day's injection list).
+  { clinicNumber: 'LPU-1009', regimen: '1-month depot', lastDaysAgo: 28, injections: 8, appointment: { time: '08:30', status: 'confirmed', today: true } },
   // Upcoming, due in 108 days.
   { clinicNumber: 'LPU-1010', regimen: '6-month depot', lastDaysAgo: 60, injections: 2 },
-  // Overdue by 16 days, no appointment.
-  { clinicNumber: 'LPU-1011', regimen: '3-month depot', lastDaysAgo: 100, injections: 4 },
+  // Overdue by 16 days, booked for this afternoon (the day's injection list).
+  { clinicNumber: 'LPU-1011', regimen: '3-month depot', lastDaysAgo: 100, injections: 4, appointment: { time: '15:00', status: 'booked', today: true } },
   // Late by 5 days; he asked for another time.
   { clinicNumber: 'LPU-1012', regimen: '1-month depot', lastDaysAgo: 33, injections: 5, appointment: { time: '14:00', status: 'change-requested' } },
 ]
@@ -111,7 +112,9 @@ export async function seedDemoSchedules(transaction: Transaction) {
           windowCloses: addDays(dueDate, DEFAULT_SETTINGS.windowLateDays),
         })[0]
       : undefined
-    const day = plan.appointment.onDay !== undefined
+    const day = plan.appointment.today
+      ? today
+      : plan.appointment.onDay !== undefined
       ? nextWorkingDay(addDays(today, plan.appointment.onDay - 1))
       : inWindow ?? nextWorkingDay(today)
     const confirmed = plan.appointment.status === 'confirmed'
