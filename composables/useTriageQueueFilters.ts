@@ -4,13 +4,13 @@ import type { TriageItemStatus } from '#shared/triage/schemas'
 
 export interface TriageQueueFilters {
   level: '' | 'emergency' | 'urgent' | 'routine'
-  status: 'open' | TriageItemStatus
+  status: 'open' | 'escalated' | TriageItemStatus
   assignee: 'anyone' | 'me' | 'nobody'
   q: string
 }
 
 const LEVEL_FILTERS = ['emergency', 'urgent', 'routine'] as const
-const STATUS_FILTERS = ['open', ...TRIAGE_STATUSES] as const
+const STATUS_FILTERS = ['open', 'escalated', ...TRIAGE_STATUSES] as const
 const ASSIGNEE_FILTERS = ['anyone', 'me', 'nobody'] as const
 
 const one = (value: LocationQuery[string] | undefined) => (Array.isArray(value) ? value[0] : value) ?? ''

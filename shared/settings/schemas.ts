@@ -25,6 +25,7 @@ export const clinicSettingsSchema = z.object({
   nursesOnDuty: z.array(email).max(50, 'validation.settings.range'),
   clinicianAlertList: z.array(email).max(50, 'validation.settings.range'),
   urgentResponseHours: days(24).min(1, 'validation.settings.range'),
+  emergencyEscalationMinutes: days(240).min(1, 'validation.settings.range'),
   mixToInjectMinutes: days(240).min(1, 'validation.settings.range'),
   routineResponseWorkingDays: days(10).min(1, 'validation.settings.range'),
   // Minutes without a request before a session ends; at most the 8-hour cookie lifetime.

@@ -40,7 +40,8 @@ export type TriageAction = z.infer<typeof triageActionSchema>
 
 export const triageQuerySchema = z.object({
   level: z.enum(LEVELS).optional(),
-  status: z.enum([...TRIAGE_STATUSES, 'open'] as const).default('open'),
+  // 'open': not closed; 'escalated': open and sent on to the clinicians.
+  status: z.enum([...TRIAGE_STATUSES, 'open', 'escalated'] as const).default('open'),
   assignee: z.enum(['me', 'anyone', 'nobody']).default('anyone'),
   q: safeText().trim().max(100).optional(),
   page: intQuery({ min: 1, max: 10_000, fallback: 1 }),

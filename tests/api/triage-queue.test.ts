@@ -116,6 +116,32 @@ describe('escalation task', () => {
   })
 })
 
+describe('emergency escalation', () => {
+  it('an emergency item goes on to the clinicians after its own target (15 minutes, the clinic default), not at the minute it opens; the queue filters escalated items', async () => {
+    const patient = await Client.signIn(app.url, 'cyril@demo.tidewell.test')
+    const reply = await patient.post(`/api/patients/${ids['LPU-1008']}/diary`, diaryEntry({ rightNow: { newWeakness: true } }))
+    expect(reply.body.level).toBe('emergency')
+    const [item] = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [reply.body.id])
+    // Respond at once: the respond-by time is the minute it came in.
+    const opened = new Date(reply.body.respondBy).getTime()
+    const admin = await Client.signIn(app.url, 'admin@demo.tidewell.test')
+    const escalated = async () => (await sql(app.dbPath, `SELECT id FROM triage_events WHERE item_id = ? AND type = 'escalated'`, [item!.id])).length
+    for (const minutes of [1, 14]) {
+      await admin.post('/api/admin/tasks/triage:escalate', { now: new Date(opened + minutes * 60_000).toISOString() })
+      expect(await escalated(), `${minutes} min`).toBe(0)
+    }
+    await admin.post('/api/admin/tasks/triage:escalate', { now: new Date(opened + 16 * 60_000).toISOString() })
+    expect(await escalated()).toBe(1)
+
+    const clinician = await Client.signIn(app.url, 'clinician@demo.tidewell.test')
+    const list = (await clinician.get('/api/triage?status=escalated&pageSize=100')).body.items as { id: number, escalated: boolean }[]
+    expect(list.map(i => i.id)).toContain(item!.id)
+    expect(list.every(i => i.escalated)).toBe(true)
+    const open = (await clinician.get('/api/triage?status=open&pageSize=100')).body.items as { escalated: boolean }[]
+    expect(open.some(i => !i.escalated)).toBe(true)
+  })
+})
+
 describe('the queue', () => {
   it('orders by level, then the respond-by time, with counts per level and filters', async () => {
     const nurse = await Client.signIn(app.url, 'nurse2@demo.tidewell.test')

@@ -8,7 +8,8 @@ const LEVEL_RANK = literal(`CASE "TriageItem"."level" WHEN 'emergency' THEN 0 WH
 
 /**
  * The triage queue (nurses and clinicians): highest level first, then the most overdue or
- * closest respond-by time; filters by level, status, assignee and patient; counts per level.
+ * closest respond-by time; filters by level, status (or open and escalated), assignee and
+ * patient; counts per level.
  */
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ['nurse', 'clinician'])
@@ -17,6 +18,7 @@ export default defineEventHandler(async (event) => {
 
   const where: WhereOptions = {}
   if (query.status === 'open') Object.assign(where, { status: { [Op.ne]: 'closed' } })
+  else if (query.status === 'escalated') Object.assign(where, { status: { [Op.ne]: 'closed' }, escalatedAt: { [Op.ne]: null } })
   else Object.assign(where, { status: query.status })
   if (query.assignee === 'me') Object.assign(where, { assigneeUserId: user.id })
   if (query.assignee === 'nobody') Object.assign(where, { assigneeUserId: { [Op.is]: null } })

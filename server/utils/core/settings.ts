@@ -17,6 +17,10 @@ export const DEFAULT_SETTINGS = {
   nursesOnDuty: [] as string[],
   clinicianAlertList: [] as string[],
   urgentResponseHours: 4,
+  // An emergency item still new this many minutes after it opened goes on to the clinicians
+  // (the patient was told to call the emergency number at once; this is the clinic's own
+  // follow-up). Common practice, no published figure.
+  emergencyEscalationMinutes: 15,
   // The depot suspension is to be given right after mixing (prescribing information, section
   // 2; from memory): past this many minutes from mixing to injection the visit warns and asks
   // the nurse to confirm. The number is the clinic's to set (common practice, no source).

@@ -90,14 +90,24 @@ export function openTriageItemForEntry(entry: DiaryEntry, transaction: Transacti
 
 /**
  * Items still new after their respond-by time go to the clinicians: a second e-mail, an
- * "escalated" event, and the item shows as overdue. The conditional update makes it once
+ * "escalated" event, and the item shows as overdue. An emergency item (respond at once) goes
+ * on when still new `emergencyEscalationMinutes` after it opened (clinic setting, 15). The conditional update makes it once
  * per item, even when two runs overlap. Returns how many were escalated.
  */
 export async function escalateOverdueItems(now: Date): Promise<number> {
   const sequelize = await useDb()
   const settings = await getSettings()
+  // An emergency item's respond-by is the minute it opened; it escalates on a target of its own.
+  const emergencyBefore = new Date(now.getTime() - settings.emergencyEscalationMinutes * 60_000)
   const due = await TriageItem.findAll({
-    where: { status: 'new', escalatedAt: { [Op.is]: null }, respondBy: { [Op.lt]: now }, level: ['emergency', 'urgent', 'routine'] },
+    where: {
+      status: 'new',
+      escalatedAt: { [Op.is]: null },
+      [Op.or]: [
+        { level: ['urgent', 'routine'], respondBy: { [Op.lt]: now } },
+        { level: 'emergency', respondBy: { [Op.lt]: emergencyBefore } },
+      ],
+    },
     order: [['respondBy', 'ASC']],
   })
   let escalated = 0
