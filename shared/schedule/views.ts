@@ -82,3 +82,14 @@ export interface DueListRow {
   group: DueGroup
   nextAppointment: { id: number, startsAt: string, status: AppointmentStatus } | null
 }
+
+/** One open request for another time on the clinic-wide list. */
+export interface ChangeRequestListRow {
+  id: number
+  patient: { id: number, name: string, clinicNumber: string }
+  appointment: { id: number, startsAt: string, place: string }
+  preferredDates: string[]
+  note: string | null
+  createdAt: string
+  requestedBy: Attribution | null
+}

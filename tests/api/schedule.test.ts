@@ -177,10 +177,16 @@ describe('booking, asking for another time and the calendar file', () => {
 
     const staffView = (await nurse.get(`/api/patients/${cyril()}/schedule`)).body
     const requestId = staffView.nextAppointment.openRequest.id
+    // The clinic-wide list: the demo's request from Mateo (seeded first), then Cyril's.
+    const open = (await nurse.get('/api/change-requests')).body.rows as { id: number, patient: { clinicNumber: string }, preferredDates: string[] }[]
+    expect(open.map(r => r.patient.clinicNumber)).toEqual(['LPU-1012', 'LPU-1008'])
+    expect(open[1]).toMatchObject({ id: requestId, preferredDates: wanted, appointment: { id: booked.body.id } })
+    expect((await patient.get('/api/change-requests')).status).toBe(403)
     const answered = await nurse.post(`/api/change-requests/${requestId}/answer`, { decision: 'move', date: wanted[1], time: '09:15', note: 'Moved to the morning.' })
     expect(answered.status).toBe(200)
     expect(answered.body).toMatchObject({ status: 'booked', localDate: wanted[1], localTime: '09:15', openRequest: null, lastAnswer: { decision: 'move', note: 'Moved to the morning.', answeredBy: 'Nora Lindqvist' } })
     expect((await nurse.post(`/api/change-requests/${requestId}/answer`, { decision: 'keep' })).status).toBe(409)
+    expect(((await nurse.get('/api/change-requests')).body.rows as { id: number }[]).map(r => r.id)).not.toContain(requestId)
 
     const seen = (await patient.get(`/api/patients/${cyril()}/schedule`)).body.nextAppointment
     expect(seen).toMatchObject({ id: booked.body.id, localDate: wanted[1], lastAnswer: { decision: 'move' } })

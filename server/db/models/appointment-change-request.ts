@@ -19,6 +19,8 @@ export class AppointmentChangeRequest extends FormRecordModel<InferAttributes<Ap
   declare answeredByUserId: ForeignKey<User['id']> | null
   declare answeredAt: Date | null
   declare requestedBy?: NonAttribute<User>
+  declare appointment?: NonAttribute<Appointment>
+  declare patient?: NonAttribute<Patient>
   declare answeredBy?: NonAttribute<User | null>
 
   static initModel(sequelize: Sequelize) {
