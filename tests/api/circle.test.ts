@@ -239,6 +239,12 @@ describe('changing and removing', () => {
     expect((await caregiver.get('/api/_auth/session')).body.user.name).toBe('Beatriz Calderón')
     expect((await luis.get(`/api/patients/${patientId}/circle`)).body.members).toEqual([])
     expect((await luis.delete(`/api/patients/${patientId}/circle/${grantId}`)).status).toBe(404)
+    // She is told by e-mail (in her language), naming no one and nothing clinical, once.
+    const ended = ['Your place in a care circle in Tidewell has ended', 'Terminó su lugar en un círculo de cuidado de Tidewell']
+    const told = await mail.waitFor(m => m.to.includes('beatriz@demo.tidewell.test') && ended.includes(m.subject))
+    expect(`${told.subject} ${told.text}`).not.toMatch(/Luis|Calderón Ybarra|LPU-1003/)
+    await new Promise(resolve => setTimeout(resolve, 800))
+    expect(mail.messages.filter(m => m.to.includes('beatriz@demo.tidewell.test') && ended.includes(m.subject))).toHaveLength(1)
     const refused = await auditLines({ patient: patientId, outcome: 'refused-policy' })
     expect(refused.filter(l => l.actor?.name === 'Beatriz Calderón').map(l => l.action).sort()).toEqual(['diary.write', 'patient.read'])
   })
