@@ -115,6 +115,22 @@ export function changeRequestSchema(today: string) {
   })
 }
 
+/**
+ * Patient or caregiver: ask the clinic to cancel the appointment (`cancel: true`, what the
+ * button he pressed says), with a note if he likes.
+ */
+export const cancelRequestSchema = z.object({
+  cancel: z.literal(true, { errorMap: () => ({ message: message('cancelConfirm') }) }),
+  note: optionalNote,
+  requestId: requestIdSchema,
+}).strict()
+
+/** Staff: cancel an open appointment, with the reason (shown to him in the app). */
+export const cancelAppointmentSchema = z.object({
+  reason: safeText({ multiLine: true, required_error: message('cancelReason') }).trim()
+    .min(1, message('cancelReason')).max(500, message('noteTooLong')),
+}).strict()
+
 /** The preferred dates of a change request, in the order given. */
 export function preferredDatesOf(input: { firstChoice: string, secondChoice?: string, thirdChoice?: string }): string[] {
   return [input.firstChoice, input.secondChoice, input.thirdChoice].filter((value): value is string => Boolean(value))

@@ -6,6 +6,9 @@ export const OPEN_APPOINTMENT_STATUSES = ['booked', 'confirmed', 'change-request
 /** A patient's request for another time, and the clinic's answer. */
 export const CHANGE_REQUEST_STATUSES = ['open', 'answered', 'withdrawn'] as const
 export type ChangeRequestStatus = (typeof CHANGE_REQUEST_STATUSES)[number]
+/** What the patient asks: another time, or to cancel (staff cancel it with a reason). */
+export const CHANGE_REQUEST_KINDS = ['move', 'cancel'] as const
+export type ChangeRequestKind = (typeof CHANGE_REQUEST_KINDS)[number]
 export const CHANGE_DECISIONS = ['move', 'keep'] as const
 export type ChangeDecision = (typeof CHANGE_DECISIONS)[number]
 

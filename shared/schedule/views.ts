@@ -1,11 +1,13 @@
 import type { ScheduleState, SiteCode } from './rules'
-import type { AppointmentStatus, ChangeDecision, DueGroup } from './statuses'
+import type { AppointmentStatus, ChangeDecision, ChangeRequestKind, DueGroup } from './statuses'
 import type { Attribution } from '../common/attribution'
 
 /** What leaves the server about the injection schedule (no internal columns). */
 
 export interface ChangeRequestView {
   id: number
+  /** Another time (with preferred dates), or to cancel (none). */
+  kind: ChangeRequestKind
   preferredDates: string[]
   note: string | null
   createdAt: string
@@ -14,7 +16,7 @@ export interface ChangeRequestView {
 }
 
 export interface ChangeAnswerView {
-  decision: ChangeDecision
+  decision: ChangeDecision | 'cancel'
   note: string | null
   answeredAt: string
   answeredBy: string
@@ -37,6 +39,14 @@ export interface AppointmentView {
   lastAnswer: ChangeAnswerView | null
 }
 
+export interface CancelledAppointmentView {
+  id: number
+  localDate: string
+  localTime: string
+  reason: string | null
+  cancelledAt: string
+}
+
 export interface ScheduleView {
   patientId: number
   /** Today in the clinic's time zone, and that zone. */
@@ -52,6 +62,11 @@ export interface ScheduleView {
   suggestedSite: SiteCode
   flareWatch: { active: boolean, startsOn: string | null, endsOn: string | null }
   nextAppointment: AppointmentView | null
+  /**
+   * When he has no open appointment: the last one the clinic cancelled in the past 30 days,
+   * with its reason, so Today tells him why and that his injection is still due.
+   */
+  lastCancelled: CancelledAppointmentView | null
   /** What the person asking may do here. */
   can: { respond: boolean, schedule: boolean, record: boolean }
 }
@@ -86,6 +101,7 @@ export interface DueListRow {
 /** One open request for another time on the clinic-wide list. */
 export interface ChangeRequestListRow {
   id: number
+  kind: ChangeRequestKind
   patient: { id: number, name: string, clinicNumber: string }
   appointment: { id: number, startsAt: string, place: string }
   preferredDates: string[]

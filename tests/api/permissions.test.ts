@@ -90,6 +90,8 @@ const ROUTES: Route[] = [
   ['GET', '/api/appointments/:id/calendar.ics', 'patient.read'],
   ['POST', '/api/appointments/:id/confirm', 'appointment.respond', { ok: 200 }],
   ['POST', '/api/appointments/:id/change-request', 'appointment.respond'],
+  ['POST', '/api/appointments/:id/cancel-request', 'appointment.respond'],
+  ['POST', '/api/appointments/:id/cancel', 'appointment.schedule'],
   ['POST', '/api/change-requests/:id/answer', 'appointment.schedule'],
   ['GET', '/api/triage/:id', 'triage.work', { roles: NURSES_AND_CLINICIANS }],
   ['POST', '/api/triage/:id/events', 'triage.work', { roles: NURSES_AND_CLINICIANS }],

@@ -19,6 +19,7 @@ export default defineEventHandler(async (event) => {
   })
   const rows: ChangeRequestListRow[] = requests.map(request => ({
     id: request.id,
+    kind: request.kind,
     patient: { id: request.patientId, name: request.patient?.user?.name ?? '', clinicNumber: request.patient?.clinicNumber ?? '' },
     appointment: { id: request.appointmentId, startsAt: request.appointment?.startsAt.toISOString() ?? '', place: request.appointment?.place ?? '' },
     preferredDates: request.preferredDates,

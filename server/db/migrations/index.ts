@@ -12,6 +12,7 @@ import * as throttle from './0011-throttle'
 import * as secondFactor from './0012-second-factor'
 import * as auditOutcomes from './0013-audit-outcomes'
 import * as visits from './0014-visits'
+import * as appointmentCancel from './0015-appointment-cancel'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -32,4 +33,5 @@ export const migrations = [
   { name: '0012-second-factor', ...secondFactor },
   { name: '0013-audit-outcomes', ...auditOutcomes },
   { name: '0014-visits', ...visits },
+  { name: '0015-appointment-cancel', ...appointmentCancel },
 ]

@@ -1,6 +1,6 @@
 import { DataTypes } from 'sequelize'
 import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
-import type { ChangeDecision, ChangeRequestStatus } from '#shared/schedule/statuses'
+import type { ChangeDecision, ChangeRequestKind, ChangeRequestStatus } from '#shared/schedule/statuses'
 import type { Appointment } from './appointment'
 import type { Patient } from './patient'
 import type { User } from './user'
@@ -11,10 +11,12 @@ export class AppointmentChangeRequest extends FormRecordModel<InferAttributes<Ap
   declare appointmentId: ForeignKey<Appointment['id']>
   declare patientId: ForeignKey<Patient['id']>
   declare requestedByUserId: ForeignKey<User['id']>
+  /** move: another time (preferredDates); cancel: no appointment at all (no dates). */
+  declare kind: CreationOptional<ChangeRequestKind>
   declare preferredDates: string[]
   declare note: string | null
   declare status: CreationOptional<ChangeRequestStatus>
-  declare decision: ChangeDecision | null
+  declare decision: ChangeDecision | 'cancel' | null
   declare answerNote: string | null
   declare answeredByUserId: ForeignKey<User['id']> | null
   declare answeredAt: Date | null
@@ -25,6 +27,7 @@ export class AppointmentChangeRequest extends FormRecordModel<InferAttributes<Ap
 
   static initModel(sequelize: Sequelize) {
     AppointmentChangeRequest.initRecord(sequelize, 'appointment_change_requests', {
+      kind: { type: DataTypes.STRING, allowNull: false, defaultValue: 'move' },
       preferredDates: { type: DataTypes.JSON, allowNull: false, field: 'preferred_dates' },
       note: { type: DataTypes.TEXT, allowNull: true },
       ...statusColumn('open'),

@@ -20,6 +20,9 @@ export class Appointment extends RecordModel<InferAttributes<Appointment>, Infer
   declare confirmedAt: Date | null
   declare confirmedByUserId: ForeignKey<User['id']> | null
   declare createdByUserId: ForeignKey<User['id']> | null
+  declare cancelReason: CreationOptional<string | null>
+  declare cancelledAt: CreationOptional<Date | null>
+  declare cancelledByUserId: CreationOptional<ForeignKey<User['id']> | null>
   declare confirmedBy?: NonAttribute<User | null>
   declare patient?: NonAttribute<Patient>
   declare changeRequests?: NonAttribute<AppointmentChangeRequest[]>
@@ -32,6 +35,8 @@ export class Appointment extends RecordModel<InferAttributes<Appointment>, Infer
       ...statusColumn('booked'),
       sequence: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       confirmedAt: { type: DataTypes.DATE, allowNull: true, field: 'confirmed_at' },
+      cancelReason: { type: DataTypes.TEXT, allowNull: true, field: 'cancel_reason' },
+      cancelledAt: { type: DataTypes.DATE, allowNull: true, field: 'cancelled_at' },
     })
   }
 }

@@ -64,6 +64,7 @@ function registerScheduleAssociations() {
   Appointment.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
   Appointment.belongsTo(User, { foreignKey: { name: 'confirmedByUserId', field: 'confirmed_by_user_id', allowNull: true }, as: 'confirmedBy' })
   Appointment.belongsTo(User, { foreignKey: { name: 'createdByUserId', field: 'created_by_user_id', allowNull: true }, as: 'createdBy' })
+  Appointment.belongsTo(User, { foreignKey: { name: 'cancelledByUserId', field: 'cancelled_by_user_id', allowNull: true }, as: 'cancelledBy' })
   Appointment.hasMany(AppointmentChangeRequest, { foreignKey: { name: 'appointmentId', field: 'appointment_id', allowNull: false }, as: 'changeRequests' })
   AppointmentChangeRequest.belongsTo(Appointment, { foreignKey: { name: 'appointmentId', field: 'appointment_id', allowNull: false }, as: 'appointment' })
   AppointmentChangeRequest.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })

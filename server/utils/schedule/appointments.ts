@@ -3,7 +3,7 @@ import { Op } from 'sequelize'
 import type { Transaction } from 'sequelize'
 import { localDate } from '#shared/schedule/rules'
 import { OPEN_APPOINTMENT_STATUSES } from '#shared/schedule/statuses'
-import type { AppointmentView, ScheduleView } from '#shared/schedule/views'
+import type { AppointmentView, CancelledAppointmentView, ScheduleView } from '#shared/schedule/views'
 import type { Patient } from '../../db/models'
 import { Appointment, AppointmentChangeRequest, User } from '../../db/models'
 import type { PatientAccess } from '../auth/access'
@@ -80,7 +80,7 @@ export async function shapeAppointment(appointment: Appointment, patientUserId: 
     confirmedAt: appointment.confirmedAt?.toISOString() ?? null,
     confirmedBy: by(appointment.confirmedByUserId),
     openRequest: open
-      ? { id: open.id, preferredDates: open.preferredDates, note: open.note, createdAt: open.createdAt.toISOString(), requestedBy: by(open.requestedByUserId) }
+      ? { id: open.id, kind: open.kind, preferredDates: open.preferredDates, note: open.note, createdAt: open.createdAt.toISOString(), requestedBy: by(open.requestedByUserId) }
       : null,
     lastAnswer: answered && answered.decision && answered.answeredAt
       ? { decision: answered.decision, note: answered.answerNote, answeredAt: answered.answeredAt.toISOString(), answeredBy: answeredBy?.name ?? '' }
@@ -109,7 +109,27 @@ export async function patientScheduleView(access: PatientAccess, clock: Schedule
     timeZone: clock.settings.timeZone,
     ...schedule,
     nextAppointment: next ? await shapeAppointment(next, access.patient.userId, clock.settings.timeZone) : null,
+    lastCancelled: next ? null : await lastCancelledOf(patientId, clock),
     can: scheduleAbilities(access),
+  }
+}
+
+const CANCELLED_SHOWN_DAYS = 30
+
+/** The last appointment the clinic cancelled (with a reason) in the past 30 days, for Today. */
+async function lastCancelledOf(patientId: number, clock: ScheduleClock): Promise<CancelledAppointmentView | null> {
+  const cancelled = await Appointment.findOne({
+    where: { patientId, status: 'cancelled', cancelledAt: { [Op.gte]: new Date(clock.now.getTime() - CANCELLED_SHOWN_DAYS * 86_400_000) } },
+    order: [['cancelledAt', 'DESC'], ['id', 'DESC']],
+  })
+  if (!cancelled?.cancelledAt) return null
+  const timeZone = clock.settings.timeZone
+  return {
+    id: cancelled.id,
+    localDate: localDate(cancelled.startsAt, timeZone),
+    localTime: clinicClockTime(cancelled.startsAt, timeZone),
+    reason: cancelled.cancelReason,
+    cancelledAt: cancelled.cancelledAt.toISOString(),
   }
 }
 
