@@ -25,6 +25,8 @@ afterAll(async () => {
   await mail?.stop()
 })
 
+const ASK_ID = '3f1c2b7e-8d4a-4c6e-9b1f-2a5d7e8c9f01'
+
 describe('cancelling an appointment', () => {
   it('the patient asks to cancel, staff cancel with a reason, he is told and the injection stays due', async () => {
     const cyril = ids['LPU-1008']!
@@ -38,11 +40,11 @@ describe('cancelling an appointment', () => {
     expect(unconfirmed.status).toBe(400)
     expect(unconfirmed.body.data.fieldErrors).toEqual({ cancel: ['validation.schedule.cancelConfirm'] })
     const nursesBefore = mail.messages.length
-    const asked = await patient.post(`/api/appointments/${booked.body.id}/cancel-request`, { cancel: true, note: 'I will be away that week.', requestId: 'cancel-ask-1' })
+    const asked = await patient.post(`/api/appointments/${booked.body.id}/cancel-request`, { cancel: true, note: 'I will be away that week.', requestId: ASK_ID })
     expect(asked.status).toBe(201)
     expect(asked.body).toMatchObject({ status: 'change-requested', openRequest: { kind: 'cancel', preferredDates: [], note: 'I will be away that week.' } })
     // A retry with the same request id: the first request back, no second one.
-    const retried = await patient.post(`/api/appointments/${booked.body.id}/cancel-request`, { cancel: true, note: 'I will be away that week.', requestId: 'cancel-ask-1' })
+    const retried = await patient.post(`/api/appointments/${booked.body.id}/cancel-request`, { cancel: true, note: 'I will be away that week.', requestId: ASK_ID })
     expect(retried.status).toBe(200)
     expect(retried.body.changeRequest.id).toBe(asked.body.changeRequest.id)
     const told = await mail.waitFor(m => mail.messages.indexOf(m) >= nursesBefore && m.subject === 'A patient asked for another appointment time')

@@ -4,8 +4,9 @@ import { seriousAxeViolations, setupBrowser, signInAs, url } from '../support/br
 await setupBrowser()
 
 // Browser tests share one server: these use Elias (LPU-1001, his appointment), Howard
-// (LPU-1011, overdue) and Franklin's appointment (LPU-1005, booked), which no other browser
-// test changes (the diary test writes Franklin's diary, not his schedule).
+// (LPU-1011, overdue), Franklin's appointment (LPU-1005, booked) and Ramón's (LPU-1007,
+// confirmed; he reads Spanish), which no other browser test changes (the diary test writes
+// Franklin's diary and the triage test Ramón's, not their schedules).
 
 describe('the injection schedule in the browser', () => {
   it('the demo patient sees his next injection on Today, confirms the appointment, and its state changes', async () => {
@@ -76,5 +77,43 @@ describe('the injection schedule in the browser', () => {
     await card.getByRole('heading', { name: 'Next injection' }).waitFor()
     expect(await card.getByRole('button', { name: 'Confirm this appointment' }).count()).toBe(0)
     await page.close()
+  })
+
+  it('Ramón asks in Spanish to cancel, the nurse cancels with a reason, and his Today says why and that the injection is still due', async () => {
+    const patient = await signInAs('ramon@demo.tidewell.test')
+    const card = patient.locator('section[aria-labelledby="next-injection-heading"]')
+    await card.getByRole('button', { name: 'Pedir que se cancele' }).click()
+    const form = card.locator('form[aria-labelledby="cancel-request-heading"]')
+    await form.getByLabel('Por qué, o qué le convendría (opcional)').fill('Estaré fuera esa semana.')
+    await form.getByRole('button', { name: 'Enviar la solicitud de cancelación' }).click()
+    await card.getByText('Su solicitud de cancelación se envió a la clínica.', { exact: false }).waitFor()
+    await card.getByText('Esperando la respuesta de la clínica a su solicitud de cancelación.', { exact: false }).waitFor()
+    expect(await seriousAxeViolations(patient)).toEqual([])
+
+    const nurse = await signInAs('nurse@demo.tidewell.test')
+    await nurse.goto(url('/staff/due'))
+    const requests = nurse.locator('[data-open-requests]')
+    await requests.getByText('Asks to cancel').waitFor()
+    await requests.getByRole('link', { name: 'Ramón Espinal Tovar' }).click()
+    await nurse.getByRole('heading', { level: 1, name: 'Ramón Espinal Tovar' }).waitFor()
+    // He asked to cancel: the cancel form is already open under his request.
+    await nurse.getByRole('heading', { name: 'He asked to cancel' }).waitFor()
+    const cancel = nurse.locator('form[aria-labelledby="cancel-appointment-heading"]')
+    await cancel.getByRole('button', { name: 'Cancel the appointment' }).click()
+    await cancel.getByText('Give the reason for cancelling', { exact: false }).waitFor()
+    await cancel.getByLabel('Reason (he will read it)').fill('Cancelada como pidió; llámenos para una fecha a su regreso.')
+    expect(await seriousAxeViolations(nurse)).toEqual([])
+    await cancel.getByRole('button', { name: 'Cancel the appointment' }).click()
+    await nurse.getByText('The appointment is cancelled and he has been told.', { exact: false }).waitFor()
+    await nurse.getByText('The last appointment', { exact: false }).waitFor()
+    await nurse.close()
+
+    await patient.reload()
+    const told = patient.getByTestId('appointment-cancelled')
+    await told.waitFor()
+    await expect(told.textContent()).resolves.toContain('La clínica canceló su cita del')
+    await expect(told.textContent()).resolves.toContain('Cancelada como pidió; llámenos para una fecha a su regreso.')
+    await expect(told.textContent()).resolves.toContain('Su inyección sigue pendiente.')
+    await patient.close()
   })
 })
