@@ -1,3 +1,5 @@
+import { fileURLToPath } from 'node:url'
+
 // https://nuxt.com/docs/api/configuration/nuxt-config
 export default defineNuxtConfig({
   compatibilityDate: '2025-07-15',
@@ -37,6 +39,15 @@ export default defineNuxtConfig({
     mailCatcherPort: 2525,
     // The local mail catcher outside development and the demo (NUXT_MAIL_CATCHER=true).
     mailCatcher: false,
+    // Attachments: an S3-compatible object store (a hosted bucket), or with no endpoint the
+    // local stand-in under data/objects (server/utils/attachments/object-store.ts).
+    s3Endpoint: '',
+    s3Region: 'us-east-1',
+    s3Bucket: 'tidewell-attachments',
+    s3AccessKeyId: '',
+    s3SecretAccessKey: '',
+    s3ForcePathStyle: false,
+    objectStorePort: 0,
     outboxPollMs: 2000,
     outboxRetryBaseMs: 30_000,
     // /api/ready answers 503 below this much free disk or with an e-mail unsent this long.
@@ -142,6 +153,13 @@ export default defineNuxtConfig({
     // Nitro then serves the one the browser accepts. Page HTML and JSON are made per request
     // and gzip-compressed on the way out (server/plugins/07.compression.ts).
     compressPublicAssets: { gzip: true, brotli: true },
+    // Node 20.19+ loads these packages through their "module-sync" export (require.mjs),
+    // which the file tracer does not follow; get-intrinsic (under s3rver, the object-store
+    // stand-in) requires them, so the server would not start without these files.
+    externals: {
+      traceInclude: ['async-function', 'async-generator-function', 'generator-function']
+        .map(name => fileURLToPath(new URL(`./node_modules/${name}/require.mjs`, import.meta.url))),
+    },
     experimental: { tasks: true },
     // server/utils is grouped by feature (auth/, schedule/, triage/, …); every file in those
     // folders is auto-imported like a top-level one.
