@@ -2,7 +2,7 @@ import { z } from 'zod'
 import { SITES } from '../schedule/rules'
 import { RIGHT_NOW_ITEMS } from '../triage/rules'
 import { isoDateSchema } from '../common/dates'
-import { idNumber, safeText } from '../common/text'
+import { hasUnsafeCharacters, idNumber, safeText, UNSAFE_TEXT_MESSAGE } from '../common/text'
 import { NOT_GIVEN_REASONS } from './rules'
 
 /*
@@ -15,6 +15,17 @@ const yes = (key: string) => z.literal(true, { errorMap: () => ({ message: messa
 const clockTime = z.string({ required_error: message('timeRequired') })
   .regex(/^([01]\d|2[0-3]):[0-5]\d$/, message('timeRequired'))
 const note = (max: number) => safeText({ multiLine: true }).trim().max(max, message('noteTooLong')).optional().transform(value => value || undefined)
+
+/**
+ * A carton scan as a handheld scanner types it: a GS1 element string, where the GS character
+ * (ASCII 29, FNC1) ends a variable-length field such as the lot. That one control character is
+ * kept; every other one a text field refuses (safeText) is refused here too, before the trim.
+ */
+// eslint-disable-next-line no-control-regex
+const GROUP_SEPARATORS = /\u001D/g
+const scannedText = z.string()
+  .refine(value => !hasUnsafeCharacters(value.replace(GROUP_SEPARATORS, '')), UNSAFE_TEXT_MESSAGE)
+  .pipe(z.string().trim().max(120, message('barcode')))
 
 /** Open a visit: for a booked appointment, or a walk-in (no appointment). */
 export const openVisitSchema = z.object({
@@ -39,7 +50,7 @@ export const visitChecksSchema = z.object({
  * and the inspection. A scan, when given, wins over typed values.
  */
 export const visitKitSchema = z.object({
-  barcode: safeText().trim().max(120, message('barcode')).optional().transform(value => value || undefined),
+  barcode: scannedText.optional().transform(value => value || undefined),
   lotNumber: safeText().trim().max(40, message('lotInvalid'))
     .regex(/^$|^[A-Za-z0-9][A-Za-z0-9 ./-]*$/, message('lotInvalid')).optional().transform(value => value || undefined),
   lotExpiresOn: z.string().optional().transform(value => value || undefined).pipe(isoDateSchema.optional()),

@@ -10,6 +10,7 @@ import { createRegimenSchema, recordInjectionSchema, scheduleAppointmentSchema, 
 import { clinicSettingsSchema } from '#shared/settings/schemas'
 import { hasUnsafeCharacters, idString, intQuery, safeText } from '#shared/common/text'
 import { triageActionSchema, triageQuerySchema } from '#shared/triage/schemas'
+import { visitKitSchema } from '#shared/visit/schemas'
 
 const UNSAFE = {
   'NUL': 'Elias\u0000 Marwood',
@@ -70,6 +71,7 @@ describe('every free-text field of the schemas uses it', () => {
     ['lab note', labResultSchema(today), note => ({ kind: 'psa', takenOn: today, value: 0.4, note }), 'note'],
     ['triage note', triageActionSchema, note => ({ type: 'note', note }), 'note'],
     ['queue search', triageQuerySchema, q => ({ q }), 'q'],
+    ['carton scan', visitKitSchema, barcode => ({ barcode, regimenId: 1, powderOk: true, diluentOk: true }), 'barcode'],
   ]
 
   it.each(fields)('%s refuses NUL and a right-to-left override', (_, schema, input, path) => {
@@ -85,6 +87,15 @@ describe('every free-text field of the schemas uses it', () => {
       expect(createRegimenSchema.parse({ name, intervalDays: 28 }).name).toBe(name)
     }
     expect(messagesAt(circleInviteSchema, { ...invite, name: 'Rosa\nMarwood' }, 'name')).toEqual(['validation.text.unsafe'])
+  })
+
+  it('a carton scan keeps the GS character that ends its lot (GS1 FNC1, ASCII 29), and no other control character', () => {
+    const kit = (barcode: string) => ({ barcode, regimenId: 1, powderOk: true, diluentOk: true })
+    const scan = `]d2010950600013435210LOT-7\u001D17271225`
+    expect(visitKitSchema.parse(kit(scan)).barcode).toBe(scan)
+    for (const value of [`${scan}\u001b[31m`, `${scan}\n`, `\t${scan}`]) {
+      expect(messagesAt(visitKitSchema, kit(value), 'barcode'), JSON.stringify(value)).toEqual(['validation.text.unsafe'])
+    }
   })
 
   it('a new password may hold spaces and symbols but no control character', () => {
