@@ -19,8 +19,9 @@ await setupBrowser()
  * padding, a ::before/::after overlay or a wrapping label count, as they do for a real tap.
  *
  * The pages are only opened. So that the nurse has a queue item to open whatever ran before,
- * augustin@ (no other browser test writes for him) sends one urgent entry first. Demo people (server/db/seed/demo.ts): patient@ is Elias
- * Marwood; caregiver@ is Marisol, who may log and confirm for him; dana@ helps Bernard, view only.
+ * augustin@ (no other browser test writes for him) sends one urgent entry first, and a nurse
+ * opens a walk-in injection visit for him, so that today's list has a visit to open. Demo
+ * people (server/db/seed/demo.ts): patient@ is Elias Marwood; caregiver@ is Marisol, who may log and confirm for him; dana@ helps Bernard, view only.
  */
 
 const WIDTHS = [390, 320]
@@ -44,7 +45,7 @@ const PEOPLE: Record<string, Person> = {
   },
   nurse: {
     email: 'nurse@demo.tidewell.test',
-    pages: ['/staff/triage', 'first:/staff/triage:a[href^="/staff/triage/"]', '/staff', 'first:/staff:a[href^="/staff/patients/"]', 'first:@3:a[href^="/staff/circle/"]', '/staff/due', '/staff/accounts/new'],
+    pages: ['/staff/triage', 'first:/staff/triage:a[href^="/staff/triage/"]', '/staff', 'first:/staff:a[href^="/staff/patients/"]', 'first:@3:a[href^="/staff/circle/"]', '/staff/due', '/staff/accounts/new', '/staff/visits', 'first:/staff/visits:a[href^="/staff/patients/"][href*="/visits/"]'],
   },
   clinician: {
     email: 'clinician@demo.tidewell.test',
@@ -162,6 +163,10 @@ describe('every page on a phone, for every role, in both languages', () => {
     // Spanish word in the note tries the item page's wrapping.
     const sent = await patient.post(`/api/patients/${patientId}/diary`, diaryEntry({ urinary: { blood: true }, note: 'Desde el martes orino con sangre; interdisciplinariamente consultado.' }))
     expect(sent.status).toBe(201)
+    // He walks in for his injection: an open visit, so the sweep opens its checklist.
+    const nurse = await Client.signIn(inject('appUrl'), 'nurse2@demo.tidewell.test')
+    const opened = await nurse.post(`/api/patients/${patientId}/visits`, { appointmentId: null })
+    expect(opened.status).toBeLessThan(300)
   })
 
   for (const language of ['en', 'es'] as const) {
