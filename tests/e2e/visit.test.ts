@@ -3,7 +3,9 @@ import { seriousAxeViolations, setupBrowser, signInAs, url } from '../support/br
 
 await setupBrowser()
 
-// Browser tests share one server: this one gives Desmond Laurier (LPU-1009) his dose. The
+// Browser tests share one server: this one gives Desmond Laurier (LPU-1009) his dose, and opens
+// a visit for Odell Pruitt (LPU-1004) that ends without one (his labs and diary, which the other
+// browser tests write, do not change; nor does his schedule, as nothing is given). The
 // demo books him for this morning, due today on a 1-month depot (last dose 28 days ago,
 // server/db/seed/schedule.ts); the other browser tests that use him (diary: an emergency
 // entry; sign-in: a wrong password) do not read his schedule.
@@ -99,5 +101,55 @@ describe('the injection visit in the browser', () => {
     await expect(card.getByTestId('appointment-when').textContent()).resolves.toContain(longDate(addDays(today, 28)))
     await expect(card.getByTestId('appointment-when').textContent()).resolves.toContain('10:00')
     await desmond.close()
+  })
+
+  it('an expired kit is refused with the server\'s words; blood on aspiration discards the kit and asks for a new one; he declines and the visit reads as a summary', async () => {
+    const nurse = await signInAs('nurse@demo.tidewell.test')
+    await nurse.goto(url('/staff/visits'))
+    const { today } = await nurse.evaluate(() => fetch('/api/visits/today').then(r => r.json() as Promise<{ today: string }>))
+    await nurse.getByRole('button', { name: 'Start the visit: Odell Pruitt' }).click()
+    await nurse.getByRole('heading', { level: 1, name: 'Injection visit: Odell Pruitt' }).waitFor()
+    // 6-month depot (168 days), last dose 171 days ago: 3 days past the due date, inside the
+    // clinic's 7-day window, so no reason is asked for.
+    const checks = nurse.locator('form[aria-labelledby="visit-checks-form-heading"]')
+    await expect(checks.getByTestId('visit-window').textContent()).resolves.toBe('Inside his window, 3 days after the due date.')
+    await checks.getByLabel('I read his full name and date of birth back to him').check()
+    await checks.getByRole('radio', { name: 'No' }).check()
+    await checks.getByLabel('I asked him every question in the list above.').check()
+    await checks.getByRole('button', { name: 'Save the checks' }).click()
+
+    // Typed by hand, with yesterday's expiry: the server refuses it at the field.
+    const kit = nurse.locator('form[aria-labelledby="visit-kit-form-heading"]')
+    await kit.getByLabel('Lot number').fill('op-77')
+    await kit.getByLabel('Expiry date').fill(addDays(today, -1))
+    await kit.getByRole('radio', { name: 'Yes: no clumping or caking' }).check()
+    await kit.getByRole('radio', { name: 'Yes: clear and colourless' }).check()
+    await kit.getByRole('button', { name: 'Save the kit' }).click()
+    await expect(kit.locator('#visit-kit-expiry-error').textContent()).resolves.toContain('This kit is past its expiry date. Do not use it.')
+    await kit.getByLabel('Expiry date').fill(addDays(today, 200))
+    await kit.getByRole('button', { name: 'Save the kit' }).click()
+    await expect(nurse.locator('li[data-step="kit"][data-state="done"]').getByTestId('visit-kit-lot').textContent()).resolves.toBe('OP-77')
+    await nurse.locator('form[aria-labelledby="visit-mix-form-heading"]').getByRole('button', { name: 'Record the mixing' }).click()
+
+    // Blood on aspiration: the kit is discarded and the kit step asks for a new one.
+    await nurse.locator('form[aria-labelledby="visit-give-form-heading"]').getByRole('button', { name: 'Discard this kit' }).click()
+    const discard = nurse.locator('form[aria-labelledby="visit-discard-form-heading"]')
+    await discard.getByRole('radio', { name: 'Blood on aspiration' }).check()
+    await discard.getByText('prepare a new kit for the whole dose at another site').waitFor()
+    await discard.getByRole('button', { name: 'Discard the kit' }).click()
+    await nurse.getByRole('heading', { name: 'Prepare a new kit' }).waitFor()
+    await nurse.getByText('Wasted (blood on aspiration)').waitFor()
+    expect(await seriousAxeViolations(nurse)).toEqual([])
+
+    // He declines a second try today: the visit ends, nothing given, and reads as a summary.
+    await nurse.getByRole('button', { name: 'The dose is not given today' }).click()
+    const notGiven = nurse.locator('form[aria-labelledby="visit-notGiven-form-heading"]')
+    await notGiven.getByRole('radio', { name: 'He declined' }).check()
+    await notGiven.getByLabel('Note (optional)').fill('Would rather come back next week.')
+    await notGiven.getByRole('button', { name: 'Record: not given today' }).click()
+    await expect(nurse.getByTestId('visit-outcome').textContent()).resolves.toContain('Not given today: He declined. His due date does not move. Would rather come back next week.')
+    await expect.poll(() => nurse.locator('form').count(), { timeout: 10_000 }).toBe(0)
+    expect(await seriousAxeViolations(nurse)).toEqual([])
+    await nurse.close()
   })
 })
