@@ -3,6 +3,9 @@ import type { VisitView } from '#shared/visit/views'
 /** The fetch key of one visit's page. */
 export const visitKey = (visitId: number) => `visit-${visitId}`
 
+/** What every step's form card shares: its heading id, its words (visit.<step>), an h3, inset under the step. */
+export const visitCard = (step: string, texts = `visit.${step}`) => ({ headingId: `visit-${step}-form-heading`, texts, headingTag: 'h3' as const, inset: true })
+
 /**
  * The visit's steps as the page sends them: each posts to its route under the visit and the
  * page reads the visit again, so every step shows what the server recorded. `yesNo` is the
