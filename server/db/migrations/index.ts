@@ -13,6 +13,7 @@ import * as secondFactor from './0012-second-factor'
 import * as auditOutcomes from './0013-audit-outcomes'
 import * as visits from './0014-visits'
 import * as appointmentCancel from './0015-appointment-cancel'
+import * as monitoring from './0016-monitoring'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -34,4 +35,5 @@ export const migrations = [
   { name: '0013-audit-outcomes', ...auditOutcomes },
   { name: '0014-visits', ...visits },
   { name: '0015-appointment-cancel', ...appointmentCancel },
+  { name: '0016-monitoring', ...monitoring },
 ]

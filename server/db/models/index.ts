@@ -9,6 +9,7 @@ import { ClinicSetting } from './clinic-setting'
 import { DiaryEntry } from './diary-entry'
 import { Injection } from './injection'
 import { LabResult } from './lab-result'
+import { MonitoringItem, MonitoringPlan } from './monitoring'
 import { OneTimeToken } from './one-time-token'
 import { OutboxMessage } from './outbox-message'
 import { Patient } from './patient'
@@ -22,7 +23,7 @@ import { User } from './user'
 import { UserSession } from './user-session'
 import { Visit, VisitKit } from './visit'
 
-export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TotpRecoveryCode, TriageEvent, TriageItem, User, UserSession, Visit, VisitKit }
+export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, MonitoringItem, MonitoringPlan, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TotpRecoveryCode, TriageEvent, TriageItem, User, UserSession, Visit, VisitKit }
 
 /** Registers every model and its associations on one connection. */
 export function initModels(sequelize: Sequelize) {
@@ -50,6 +51,9 @@ export function initModels(sequelize: Sequelize) {
   Visit.initModel(sequelize)
   VisitKit.initModel(sequelize)
   registerVisitAssociations()
+  MonitoringPlan.initModel(sequelize)
+  MonitoringItem.initModel(sequelize)
+  registerMonitoringAssociations()
 }
 
 /** The injection schedule: regimens, injections, appointments and change requests. */
@@ -109,4 +113,15 @@ function registerVisitAssociations() {
   VisitKit.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
   VisitKit.belongsTo(Regimen, { foreignKey: { name: 'regimenId', field: 'regimen_id', allowNull: false }, as: 'regimen' })
   VisitKit.belongsTo(User, { foreignKey: userKey('inspectedByUserId', false), as: 'inspectedBy' })
+}
+
+/** The monitoring plan: its patient, owner, the regimen it was made from, and its items. */
+function registerMonitoringAssociations() {
+  const patientKey = { name: 'patientId', field: 'patient_id', allowNull: false }
+  MonitoringPlan.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
+  MonitoringPlan.belongsTo(User, { foreignKey: { name: 'ownerUserId', field: 'owner_user_id', allowNull: false }, as: 'owner' })
+  MonitoringPlan.belongsTo(Regimen, { foreignKey: { name: 'regimenId', field: 'regimen_id', allowNull: true }, as: 'regimen' })
+  MonitoringPlan.hasMany(MonitoringItem, { foreignKey: { name: 'planId', field: 'plan_id', allowNull: false }, as: 'items' })
+  MonitoringItem.belongsTo(MonitoringPlan, { foreignKey: { name: 'planId', field: 'plan_id', allowNull: false }, as: 'plan' })
+  MonitoringItem.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
 }
