@@ -41,6 +41,8 @@ const EXPECTED: Record<string, Record<Actor, Answer>> = {
   'triage.work': /*                 */ row(403, 404, 404, 403, 403, 403, 404, 'ok', 'ok', 403),
   'risk-profile.manage': /*         */ row(403, 404, 404, 403, 403, 403, 404, 'ok', 'ok', 403),
   'contact.manage': /*              */ row('ok', 404, 404, 403, 403, 403, 404, 'ok', 'ok', 'ok'),
+  'monitoring.read': /*             */ row(403, 404, 404, 403, 403, 403, 404, 'ok', 'ok', 403),
+  'monitoring.manage': /*           */ row(403, 404, 404, 403, 403, 403, 404, 403, 'ok', 403),
 }
 
 interface RouteOptions {
@@ -78,6 +80,11 @@ const ROUTES: Route[] = [
   ['GET', '/api/patients/:id/access-history', 'access-history.read'],
   ['GET', '/api/patients/:id/labs', 'patient.read'],
   ['POST', '/api/patients/:id/labs', 'labs.record'],
+  ['GET', '/api/patients/:id/monitoring', 'monitoring.read'],
+  ['PUT', '/api/patients/:id/monitoring', 'monitoring.manage'],
+  ['POST', '/api/patients/:id/monitoring/defaults', 'monitoring.manage'],
+  ['POST', '/api/patients/:id/monitoring/done', 'labs.record'],
+  ['GET', '/api/patients/:id/monitoring/due', 'patient.read'],
   ['POST', '/api/patients/:id/visits', 'injection.record'],
   ['GET', '/api/patients/:id/visits/:visitId', 'injection.record'],
   ['POST', '/api/patients/:id/visits/:visitId/checks', 'injection.record'],

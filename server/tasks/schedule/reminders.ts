@@ -9,6 +9,7 @@ import { Appointment, Patient, User } from '../../db/models'
  * and 1) with the calendar file attached, and one "please book" e-mail to a patient with
  * no appointment whose due date is PLEASE_BOOK_DAYS away or less. Every e-mail carries a
  * dedupe key, so running the task twice on a day (or on two servers) sends nothing twice.
+ * It also reminds patients of the checks of their monitoring plan (queueMonitoringReminders).
  */
 export default defineTask({
   meta: { name: 'schedule:reminders', description: 'Queue appointment reminders and "please book" e-mails' },
@@ -63,6 +64,7 @@ export default defineTask({
       }, transaction))
       if (queued) pleaseBook++
     }
-    return { result: { today: clock.today, reminders, pleaseBook } }
+    const monitoring = await queueMonitoringReminders(clock)
+    return { result: { today: clock.today, reminders, pleaseBook, monitoring } }
   },
 })

@@ -24,6 +24,8 @@ export const PATIENT_ACTIONS = [
   'triage.work', // work a triage queue item: claim, call, note, disposition, close
   'risk-profile.manage', // read and set the risk profile that raises triage
   'contact.manage', // set his phones, best times to call and preferred contact
+  'monitoring.read', // the staff view of his monitoring plan, with results and sources
+  'monitoring.manage', // make or change his monitoring plan (clinicians own it)
 ] as const
 export type PatientAction = (typeof PATIENT_ACTIONS)[number]
 
@@ -40,8 +42,8 @@ export type Relation =
   | { kind: 'none' }
 
 const STAFF_ALLOWED: Record<'nurse' | 'clinician' | 'admin', readonly PatientAction[]> = {
-  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'regimen.set', 'labs.record', 'circle.read', 'circle.manage', 'triage.work', 'risk-profile.manage', 'contact.manage'],
-  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'regimen.set', 'labs.record', 'circle.read', 'triage.work', 'risk-profile.manage', 'contact.manage'],
+  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'regimen.set', 'labs.record', 'circle.read', 'circle.manage', 'triage.work', 'risk-profile.manage', 'contact.manage', 'monitoring.read'],
+  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'regimen.set', 'labs.record', 'circle.read', 'triage.work', 'risk-profile.manage', 'contact.manage', 'monitoring.read', 'monitoring.manage'],
   admin: ['patient.read', 'appointment.schedule', 'circle.read', 'circle.manage', 'contact.manage'],
 }
 
