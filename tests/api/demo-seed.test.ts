@@ -10,7 +10,7 @@ beforeAll(async () => {
 })
 afterAll(() => app?.stop())
 
-const TABLES = ['users', 'patients', 'care_grants', 'injections', 'appointments', 'diary_entries', 'triage_items', 'triage_events']
+const TABLES = ['users', 'patients', 'care_grants', 'injections', 'appointments', 'diary_entries', 'triage_items', 'triage_events', 'monitoring_plans', 'monitoring_items']
 
 async function counts() {
   return Object.fromEntries(await Promise.all(TABLES.map(async t => [t, (await sql<{ n: number }>(app.dbPath, `SELECT COUNT(*) AS n FROM ${t}`))[0]!.n])))
@@ -55,6 +55,18 @@ describe('the demo clinic', () => {
     expect(patients.filter(p => p.risk_profile && Object.values(JSON.parse(p.risk_profile)).includes(true))).toHaveLength(3)
     const caregivers = await sql<{ phone: string | null }>(app.dbPath, `SELECT phone FROM users WHERE role = 'caregiver'`)
     for (const caregiver of caregivers) expect(caregiver.phone).toMatch(/^\(\d{3}\) 555-01\d{2}$/)
+  })
+
+  it('gives every patient a monitoring plan owned by the clinician; ECG and electrolytes only for the man with heart risk factors', async () => {
+    const plans = await sql<{ clinic_number: string, owner: string, items: number }>(app.dbPath, `SELECT p.clinic_number, u.email AS owner, (SELECT COUNT(*) FROM monitoring_items i WHERE i.plan_id = m.id) AS items
+      FROM monitoring_plans m JOIN patients p ON p.id = m.patient_id JOIN users u ON u.id = m.owner_user_id`)
+    expect(plans).toHaveLength(12)
+    for (const plan of plans) expect(plan).toMatchObject({ owner: 'clinician@demo.tidewell.test', items: 10 })
+    const ecg = await sql<{ clinic_number: string }>(app.dbPath, `SELECT p.clinic_number FROM monitoring_items i JOIN patients p ON p.id = i.patient_id WHERE i.kind = 'ecg' AND i.active = 1`)
+    expect(ecg.map(row => row.clinic_number)).toEqual(['LPU-1010'])
+    const nurse = await Client.signIn(app.url, 'nurse@demo.tidewell.test')
+    const due = (await nurse.get('/api/monitoring/due')).body.rows as { state: string }[]
+    expect(new Set(due.map(row => row.state))).toEqual(new Set(['overdue', 'due-this-month']))
   })
 
   it('seeding again on the same database changes nothing', async () => {

@@ -5,6 +5,7 @@ import { riskProfileOf } from '#shared/triage/risk-profile'
 import type { ContactPreference, PatientPhone } from '#shared/contact/schemas'
 import type { Language, Role } from '#shared/auth/roles'
 import { seedDemoLabs } from './labs'
+import { seedDemoMonitoring } from './monitoring'
 import { seedDemoSchedules } from './schedule'
 
 /**
@@ -126,6 +127,8 @@ const STEPS: [string, SeedStep][] = [
       await User.update({ totpSecret: encryptSecret(DEMO_TOTP_SECRET), totpEnabledAt: new Date() }, { where: { email: person.email }, transaction })
     }
   }],
+  // After the contacts: ECG and electrolytes follow the risk profile.
+  ['monitoring', seedDemoMonitoring],
 ]
 
 /** Runs each step that has not run on this database yet; running it again changes nothing. */
@@ -140,7 +143,7 @@ export async function runSeedSteps(sequelize: Sequelize, steps: [string, SeedSte
   }
 }
 
-/** The demo clinic: people, schedules and results. */
+/** The demo clinic: people, schedules, results and monitoring plans. */
 export function seedDemoClinic(sequelize: Sequelize) {
   return runSeedSteps(sequelize, STEPS)
 }

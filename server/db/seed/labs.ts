@@ -37,10 +37,15 @@ const DEMO_LABS: Record<string, DemoLab[]> = {
   ],
 }
 
-export async function seedDemoLabs(transaction: Transaction) {
+/** Today in the demo clinic's time zone: the day the demo dates count back from. */
+export async function demoToday(transaction: Transaction): Promise<string> {
   const stored = await ClinicSetting.findByPk('timeZone', { transaction })
   const timeZone = typeof stored?.value === 'string' ? stored.value : DEFAULT_SETTINGS.timeZone
-  const today = localDate(new Date(), timeZone)
+  return localDate(new Date(), timeZone)
+}
+
+export async function seedDemoLabs(transaction: Transaction) {
+  const today = await demoToday(transaction)
   const nurse = await User.findOne({ where: { role: 'nurse' }, order: [['id', 'ASC']], transaction })
   if (!nurse) return
   for (const [clinicNumber, labs] of Object.entries(DEMO_LABS)) {
