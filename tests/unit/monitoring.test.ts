@@ -181,3 +181,13 @@ describe('due state', () => {
     expect(dueState(dueOn, today)).toBe(state)
   })
 })
+
+describe('the sources in both languages', () => {
+  it('every source is in the English locale word for word, and translated in Spanish', async () => {
+    const en = (await import('../../locales/en.json')).default.monitoring.sources as Record<string, string>
+    const es = (await import('../../locales/es.json')).default.monitoring.sources as Record<string, string>
+    expect(en).toEqual({ ...MONITORING_SOURCES })
+    for (const [key, text] of Object.entries(MONITORING_SOURCES)) expect(es[key], key).not.toBe(text)
+    expect(Object.keys(es).sort()).toEqual(Object.keys(MONITORING_SOURCES).sort())
+  })
+})
