@@ -45,11 +45,11 @@ const PEOPLE: Record<string, Person> = {
   },
   nurse: {
     email: 'nurse@demo.tidewell.test',
-    pages: ['/staff/triage', 'first:/staff/triage:a[href^="/staff/triage/"]', '/staff', 'first:/staff:a[href^="/staff/patients/"]', 'first:@3:a[href^="/staff/circle/"]', '/staff/due', '/staff/accounts/new', '/staff/visits', 'first:/staff/visits:a[href^="/staff/patients/"][href*="/visits/"]'],
+    pages: ['/staff/triage', 'first:/staff/triage:a[href^="/staff/triage/"]', '/staff', 'first:/staff:a[href^="/staff/patients/"]', 'first:@3:a[href^="/staff/circle/"]', '/staff/due', '/staff/monitoring', '/staff/accounts/new', '/staff/visits', 'first:/staff/visits:a[href^="/staff/patients/"][href*="/visits/"]'],
   },
   clinician: {
     email: 'clinician@demo.tidewell.test',
-    pages: ['/staff/triage', '/staff/regimens'],
+    pages: ['/staff/triage', '/staff/regimens', '/staff/monitoring', 'first:/staff:a[href^="/staff/patients/"]'],
   },
   admin: {
     email: 'admin@demo.tidewell.test',
