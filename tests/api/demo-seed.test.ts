@@ -66,7 +66,9 @@ describe('the demo clinic', () => {
     expect(ecg.map(row => row.clinic_number)).toEqual(['LPU-1010'])
     const nurse = await Client.signIn(app.url, 'nurse@demo.tidewell.test')
     const due = (await nurse.get('/api/monitoring/due')).body.rows as { state: string }[]
-    expect(new Set(due.map(row => row.state))).toEqual(new Set(['overdue', 'due-this-month']))
+    // LPU-1008's bone scan was 800 days ago (every 730 days); "due this month" depends on the day the demo is seeded.
+    expect(due.some(row => row.state === 'overdue')).toBe(true)
+    expect(due.every(row => row.state === 'overdue' || row.state === 'due-this-month')).toBe(true)
   })
 
   it('seeding again on the same database changes nothing', async () => {

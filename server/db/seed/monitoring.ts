@@ -11,7 +11,8 @@ import { demoToday } from './labs'
  * A monitoring plan for every demo patient with a regimen, from the clinic defaults, owned
  * by the demo clinician. A check is done on the day of his newest demo result of its kind,
  * blood pressure and weight at his last injection, and the few checks below on invented
- * days, so "Monitoring due" shows overdue checks, checks due this month and later ones.
+ * days, and every other check as a baseline on the day his regimen started, so "Monitoring
+ * due" shows overdue checks, checks due this month and later ones.
  */
 const DEMO_CHECKS_DONE: Record<string, Partial<Record<MonitoringKind, number>>> = {
   'LPU-1001': { 'bone-density': 400, 'vitamin-d': 300, 'lipids': 200, 'glucose': 170 },
@@ -37,8 +38,10 @@ export async function seedDemoMonitoring(transaction: Transaction) {
       mark('weight', regimen.start.lastInjectionOn)
     }
     for (const [kind, daysAgo] of Object.entries(DEMO_CHECKS_DONE[patient.clinicNumber] ?? {})) mark(kind as MonitoringKind, addDays(today, -daysAgo))
+    // Every other check was done once, as a baseline, when his regimen started.
+    const baseline = regimen.start.startsOn <= today ? regimen.start.startsOn : null
     const plan = await MonitoringPlan.create({ patientId: patient.id, ownerUserId: owner.id, regimenId: regimen.regimenId }, { transaction })
     const items = planFromDefaults(regimen.start, today, RISK_FACTORS.filter(factor => profile[factor]))
-    await MonitoringItem.bulkCreate(items.map(item => ({ ...item, planId: plan.id, patientId: patient.id, lastDoneOn: done.get(item.kind) ?? null })), { transaction })
+    await MonitoringItem.bulkCreate(items.map(item => ({ ...item, planId: plan.id, patientId: patient.id, lastDoneOn: done.get(item.kind) ?? baseline })), { transaction })
   }
 }
