@@ -49,7 +49,7 @@ describe('the injection schedule in the browser', () => {
     await form.getByRole('button', { name: 'Record injection' }).click()
     await form.getByText('Injection recorded.').waitFor()
     await page.locator('section[aria-labelledby="schedule-heading"] [data-state="upcoming"]').waitFor()
-    await expect.poll(() => page.locator('table').last().textContent(), { timeout: 10_000 }).toContain('LQ7781T')
+    await expect.poll(() => page.locator('section[aria-labelledby="history-heading"] table').textContent(), { timeout: 10_000 }).toContain('LQ7781T')
 
     await page.goto(url('/staff/due'))
     await page.getByRole('heading', { level: 1, name: 'Due list' }).waitFor()
