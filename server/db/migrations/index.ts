@@ -14,6 +14,7 @@ import * as auditOutcomes from './0013-audit-outcomes'
 import * as visits from './0014-visits'
 import * as appointmentCancel from './0015-appointment-cancel'
 import * as monitoring from './0016-monitoring'
+import * as messages from './0017-messages'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -36,4 +37,5 @@ export const migrations = [
   { name: '0014-visits', ...visits },
   { name: '0015-appointment-cancel', ...appointmentCancel },
   { name: '0016-monitoring', ...monitoring },
+  { name: '0017-messages', ...messages },
 ]

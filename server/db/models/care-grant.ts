@@ -1,5 +1,5 @@
 import { DataTypes } from 'sequelize'
-import type { ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
+import type { CreationOptional, ForeignKey, InferAttributes, InferCreationAttributes, NonAttribute, Sequelize } from 'sequelize'
 import type { Patient } from './patient'
 import type { User } from './user'
 import { RecordModel } from './columns'
@@ -10,6 +10,7 @@ export class CareGrant extends RecordModel<InferAttributes<CareGrant>, InferCrea
   declare caregiverUserId: ForeignKey<User['id']>
   declare canLogDiary: boolean
   declare canManageAppointments: boolean
+  declare canMessage: CreationOptional<boolean>
   declare grantedByUserId: ForeignKey<User['id']>
   declare revokedAt: Date | null
   /** Who last changed the permissions (the patient, or staff on his behalf). */
@@ -24,6 +25,7 @@ export class CareGrant extends RecordModel<InferAttributes<CareGrant>, InferCrea
     CareGrant.initRecord(sequelize, 'care_grants', {
       canLogDiary: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false, field: 'can_log_diary' },
       canManageAppointments: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false, field: 'can_manage_appointments' },
+      canMessage: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false, field: 'can_message' },
       revokedAt: { type: DataTypes.DATE, allowNull: true, field: 'revoked_at' },
     })
   }

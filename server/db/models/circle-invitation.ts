@@ -20,6 +20,7 @@ export class CircleInvitation extends FormRecordModel<InferAttributes<CircleInvi
   declare language: Language
   declare canLogDiary: boolean
   declare canManageAppointments: boolean
+  declare canMessage: CreationOptional<boolean>
   declare invitedByUserId: ForeignKey<User['id']>
   declare status: CreationOptional<InvitationStatus>
   declare expiresAt: Date
@@ -36,6 +37,7 @@ export class CircleInvitation extends FormRecordModel<InferAttributes<CircleInvi
       language: { type: DataTypes.STRING, allowNull: false, defaultValue: 'en' },
       canLogDiary: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false, field: 'can_log_diary' },
       canManageAppointments: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false, field: 'can_manage_appointments' },
+      canMessage: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false, field: 'can_message' },
       ...statusColumn('pending'),
       expiresAt: { type: DataTypes.DATE, allowNull: false, field: 'expires_at' },
       closedAt: { type: DataTypes.DATE, allowNull: true, field: 'closed_at' },

@@ -1,6 +1,7 @@
 import type { Sequelize } from 'sequelize'
 import { Appointment } from './appointment'
 import { AppointmentChangeRequest } from './appointment-change-request'
+import { Attachment } from './attachment'
 import { AuditEvent } from './audit-event'
 import { CareGrant } from './care-grant'
 import { CaughtMail } from './caught-mail'
@@ -10,6 +11,9 @@ import { DiaryEntry } from './diary-entry'
 import { Injection } from './injection'
 import { LabResult } from './lab-result'
 import { MonitoringItem, MonitoringPlan } from './monitoring'
+import { Message } from './message'
+import { MessageRead } from './message-read'
+import { MessageThread } from './message-thread'
 import { OneTimeToken } from './one-time-token'
 import { OutboxMessage } from './outbox-message'
 import { Patient } from './patient'
@@ -23,7 +27,7 @@ import { User } from './user'
 import { UserSession } from './user-session'
 import { Visit, VisitKit } from './visit'
 
-export { Appointment, AppointmentChangeRequest, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, MonitoringItem, MonitoringPlan, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TotpRecoveryCode, TriageEvent, TriageItem, User, UserSession, Visit, VisitKit }
+export { Appointment, AppointmentChangeRequest, Attachment, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, Message, MessageRead, MessageThread, MonitoringItem, MonitoringPlan, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TotpRecoveryCode, TriageEvent, TriageItem, User, UserSession, Visit, VisitKit }
 
 /** Registers every model and its associations on one connection. */
 export function initModels(sequelize: Sequelize) {
@@ -54,6 +58,8 @@ export function initModels(sequelize: Sequelize) {
   MonitoringPlan.initModel(sequelize)
   MonitoringItem.initModel(sequelize)
   registerMonitoringAssociations()
+  for (const model of [MessageThread, Message, MessageRead, Attachment]) model.initModel(sequelize)
+  registerMessageAssociations()
 }
 
 /** The injection schedule: regimens, injections, appointments and change requests. */
@@ -124,4 +130,24 @@ function registerMonitoringAssociations() {
   MonitoringPlan.hasMany(MonitoringItem, { foreignKey: { name: 'planId', field: 'plan_id', allowNull: false }, as: 'items' })
   MonitoringItem.belongsTo(MonitoringPlan, { foreignKey: { name: 'planId', field: 'plan_id', allowNull: false }, as: 'plan' })
   MonitoringItem.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
+/** Messages: threads per patient, their messages, who read each, and the files sent. */
+function registerMessageAssociations() {
+  const patientKey = { name: 'patientId', field: 'patient_id', allowNull: false }
+  const threadKey = { name: 'threadId', field: 'thread_id', allowNull: false }
+  const messageKey = { name: 'messageId', field: 'message_id', allowNull: false }
+  MessageThread.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
+  MessageThread.belongsTo(User, { foreignKey: { name: 'startedByUserId', field: 'started_by_user_id', allowNull: false }, as: 'startedBy' })
+  MessageThread.hasMany(Message, { foreignKey: threadKey, as: 'messages' })
+  Message.belongsTo(MessageThread, { foreignKey: threadKey, as: 'thread' })
+  Message.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
+  Message.belongsTo(User, { foreignKey: { name: 'authorUserId', field: 'author_user_id', allowNull: false }, as: 'author' })
+  Message.belongsTo(User, { foreignKey: { name: 'enteredInErrorByUserId', field: 'entered_in_error_by_user_id', allowNull: true }, as: 'enteredInErrorBy' })
+  Message.hasMany(MessageRead, { foreignKey: messageKey, as: 'reads' })
+  MessageRead.belongsTo(Message, { foreignKey: messageKey, as: 'message' })
+  MessageRead.belongsTo(User, { foreignKey: { name: 'userId', field: 'user_id', allowNull: false }, as: 'user' })
+  Message.hasMany(Attachment, { foreignKey: { name: 'messageId', field: 'message_id', allowNull: true }, as: 'attachments' })
+  Attachment.belongsTo(Message, { foreignKey: { name: 'messageId', field: 'message_id', allowNull: true }, as: 'message' })
+  Attachment.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
+  Attachment.belongsTo(User, { foreignKey: { name: 'uploadedByUserId', field: 'uploaded_by_user_id', allowNull: false }, as: 'uploadedBy' })
+  Attachment.belongsTo(LabResult, { foreignKey: { name: 'labResultId', field: 'lab_result_id', allowNull: true }, as: 'labResult' })
 }
