@@ -12,6 +12,8 @@ const flag = z.boolean({ required_error: 'validation.generic.invalid_type', inva
 export const circlePermissionsSchema = z.object({
   canLogDiary: flag,
   canManageAppointments: flag,
+  // Added with messages (issue 13): left out, the grant keeps what it had.
+  canMessage: flag.optional(),
 }).strict()
 
 /**
@@ -26,6 +28,7 @@ export const circleInviteSchema = z.object({
   language: z.enum(LANGUAGES).default('en'),
   canLogDiary: flag,
   canManageAppointments: flag,
+  canMessage: flag.default(false),
   requestId: requestIdSchema,
 }).strict()
 

@@ -19,6 +19,7 @@ export default defineEventHandler(async (event) => {
     email: invitation.email,
     canLogDiary: invitation.canLogDiary,
     canManageAppointments: invitation.canManageAppointments,
+    canMessage: invitation.canMessage,
     expiresAt: invitation.expiresAt,
     invitedBy: inviter ? { name: inviter.name, role: inviter.role, onBehalf: inviter.id !== patient?.userId } : null,
     account: invitationAccountKind(account),

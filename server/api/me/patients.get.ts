@@ -8,7 +8,7 @@ import { CareGrant, Patient, User } from '../../db/models'
 export default defineEventHandler(async (event) => {
   const user = await requireActiveUser(event)
   if (user.role === 'patient' && user.patientId) {
-    return [{ patientId: user.patientId, name: user.name, relation: 'self' as const, canLogDiary: true, canManageAppointments: true }]
+    return [{ patientId: user.patientId, name: user.name, relation: 'self' as const, canLogDiary: true, canManageAppointments: true, canMessage: true }]
   }
   if (user.role !== 'caregiver') return []
   const grants = await CareGrant.findAll({
@@ -22,5 +22,6 @@ export default defineEventHandler(async (event) => {
     relation: 'caregiver' as const,
     canLogDiary: grant.canLogDiary,
     canManageAppointments: grant.canManageAppointments,
+    canMessage: grant.canMessage,
   }))
 })

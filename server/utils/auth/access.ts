@@ -26,12 +26,16 @@ export const PATIENT_ACTIONS = [
   'contact.manage', // set his phones, best times to call and preferred contact
   'monitoring.read', // the staff view of his monitoring plan, with results and sources
   'monitoring.manage', // make or change his monitoring plan (clinicians own it)
+  'message.read', // read the conversations with the care team and their attachments
+  'message.write', // send a message or a file to the care team (or, staff, to him)
+  'message.manage', // mark a message entered in error; file an attachment into the record
 ] as const
 export type PatientAction = (typeof PATIENT_ACTIONS)[number]
 
 export interface GrantFlags {
   canLogDiary: boolean
   canManageAppointments: boolean
+  canMessage: boolean
 }
 
 /** How the person asking relates to the patient record. */
@@ -42,13 +46,13 @@ export type Relation =
   | { kind: 'none' }
 
 const STAFF_ALLOWED: Record<'nurse' | 'clinician' | 'admin', readonly PatientAction[]> = {
-  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'regimen.set', 'labs.record', 'circle.read', 'circle.manage', 'triage.work', 'risk-profile.manage', 'contact.manage', 'monitoring.read'],
-  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'regimen.set', 'labs.record', 'circle.read', 'triage.work', 'risk-profile.manage', 'contact.manage', 'monitoring.read', 'monitoring.manage'],
+  nurse: ['patient.read', 'appointment.schedule', 'injection.record', 'regimen.set', 'labs.record', 'circle.read', 'circle.manage', 'triage.work', 'risk-profile.manage', 'contact.manage', 'monitoring.read', 'message.read', 'message.write', 'message.manage'],
+  clinician: ['patient.read', 'appointment.schedule', 'injection.record', 'regimen.set', 'labs.record', 'circle.read', 'triage.work', 'risk-profile.manage', 'contact.manage', 'monitoring.read', 'monitoring.manage', 'message.read', 'message.write', 'message.manage'],
   admin: ['patient.read', 'appointment.schedule', 'circle.read', 'circle.manage', 'contact.manage'],
 }
 
 const SELF_ALLOWED: readonly PatientAction[] = [
-  'patient.read', 'diary.write', 'appointment.respond', 'circle.read', 'circle.manage', 'access-history.read', 'contact.manage',
+  'patient.read', 'diary.write', 'appointment.respond', 'circle.read', 'circle.manage', 'access-history.read', 'contact.manage', 'message.read', 'message.write',
 ]
 
 export function can(role: Role, relation: Relation, action: PatientAction): boolean {
@@ -60,6 +64,8 @@ export function can(role: Role, relation: Relation, action: PatientAction): bool
       if (action === 'patient.read') return true
       if (action === 'diary.write') return relation.grant.canLogDiary
       if (action === 'appointment.respond') return relation.grant.canManageAppointments
+      // Reading the conversations comes with the right to take part in them, not with viewing.
+      if (action === 'message.read' || action === 'message.write') return relation.grant.canMessage
       return false
     case 'staff':
       return (role === 'nurse' || role === 'clinician' || role === 'admin') && STAFF_ALLOWED[role].includes(action)

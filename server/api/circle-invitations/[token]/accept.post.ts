@@ -45,7 +45,7 @@ export default defineEventHandler(async (event) => {
     }
     if (!await consumeToken(raw, ['circle-invite'], transaction)) throw createError({ statusCode: 404, message: 'errors.linkInvalid' })
 
-    const flags = { canLogDiary: invitation.canLogDiary, canManageAppointments: invitation.canManageAppointments }
+    const flags = { canLogDiary: invitation.canLogDiary, canManageAppointments: invitation.canManageAppointments, canMessage: invitation.canMessage }
     const current = await CareGrant.findOne({ where: { patientId: invitation.patientId, caregiverUserId: account!.id, revokedAt: { [Op.is]: null } }, transaction })
     const grant = current
       ? await current.update({ ...flags, updatedByUserId: invitation.invitedByUserId }, { transaction })

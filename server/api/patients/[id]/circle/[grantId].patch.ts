@@ -15,7 +15,8 @@ export default defineEventHandler(async (event) => {
   await sequelize.transaction(async (transaction) => {
     const grant = await CareGrant.findOne({ where: { id: grantId, patientId: patient.id, revokedAt: { [Op.is]: null } }, transaction })
     if (!grant) throw createError({ statusCode: 404, message: 'errors.notFound' })
-    await grant.update({ ...input, updatedByUserId: user.id }, { transaction })
+    const { canMessage, ...flags } = input
+    await grant.update({ ...flags, ...(canMessage === undefined ? {} : { canMessage }), updatedByUserId: user.id }, { transaction })
     await noticeCircleChangedByStaff(relation, patient, transaction)
     await recordAudit(event, { actor: user, patientId: patient.id, action: 'circle.update', resource: `care-grant:${grant.id}` }, transaction)
   })

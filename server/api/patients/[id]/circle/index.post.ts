@@ -40,6 +40,7 @@ export default defineEventHandler(async (event) => {
       language: account?.language ?? input.language,
       canLogDiary: input.canLogDiary,
       canManageAppointments: input.canManageAppointments,
+      canMessage: input.canMessage,
       invitedByUserId: user.id,
       expiresAt: new Date(now.getTime() + TOKEN_TTL_MS['circle-invite']),
       acceptedByUserId: null,
