@@ -1,5 +1,6 @@
 import type { H3Event } from 'h3'
 import { createError, defineEventHandler, getRequestHeader, getRequestURL } from 'h3'
+import { ATTACHMENT_MAX_BYTES } from '#shared/attachments/rules'
 
 /*
  * Every state-changing API request (POST, PUT, PATCH, DELETE under /api/) passes here
@@ -16,6 +17,13 @@ import { createError, defineEventHandler, getRequestHeader, getRequestURL } from
  *   Content-Length before a byte of it is read; a body without a length (chunked) answers
  *   411 errors.lengthRequired. Browsers and ofetch always send a length with JSON.
  *
+ * One route takes something else on purpose: an attachment upload
+ * (POST /api/patients/:id/attachments, UPLOAD_ROUTE) may be multipart/form-data of at most
+ * ATTACHMENT_MAX_BYTES plus UPLOAD_OVERHEAD_BYTES for the multipart framing (413 past that);
+ * anything else sent there is judged as everywhere (JSON, 64 kB), so a signed-out caller
+ * still gets 401 from the route. Only that exact path; every other route stays JSON-only and
+ * 64 kB, and the Origin check holds for the upload as for everything else.
+ *
  * nuxt-auth-utils' own DELETE /api/_auth/session (useUserSession().clear()) carries no
  * body and the browser sends Origin with it, so it passes like any other request.
  */
@@ -30,6 +38,15 @@ const MAX_BODY_BYTES = 64 * 1024
  * Empty: every route fits in 64 kB. See DEVELOPERS.md "Request bodies".
  */
 const LARGER_BODY_LIMITS: Record<string, number> = {}
+
+/** The upload route, and what multipart framing may add to one file (boundaries, part headers, a long file name). */
+const UPLOAD_ROUTE = /^\/api\/patients\/\d{1,10}\/attachments$/
+const UPLOAD_OVERHEAD_BYTES = 64 * 1024
+
+/** multipart/form-data with a boundary. */
+function isMultipart(contentType: string | undefined): boolean {
+  return !!contentType && /^multipart\/form-data\s*;\s*boundary=/i.test(contentType.trim())
+}
 
 function bodyLimitFor(path: string): number {
   let limit = MAX_BODY_BYTES
@@ -75,9 +92,12 @@ export default defineEventHandler((event) => {
   const length = lengthHeader === undefined ? 0 : Number(lengthHeader)
   if (length === 0 && !chunked) return
 
-  if (!isJson(getRequestHeader(event, 'content-type'))) throw createError({ statusCode: 415, message: 'errors.jsonOnly' })
+  const contentType = getRequestHeader(event, 'content-type')
+  const upload = event.method.toUpperCase() === 'POST' && UPLOAD_ROUTE.test(path) && isMultipart(contentType)
+  if (!upload && !isJson(contentType)) throw createError({ statusCode: 415, message: 'errors.jsonOnly' })
   if (lengthHeader === undefined) throw createError({ statusCode: 411, message: 'errors.lengthRequired' })
-  if (!Number.isSafeInteger(length) || length > bodyLimitFor(path)) {
+  const limit = upload ? ATTACHMENT_MAX_BYTES + UPLOAD_OVERHEAD_BYTES : bodyLimitFor(path)
+  if (!Number.isSafeInteger(length) || length > limit) {
     throw createError({ statusCode: 413, message: 'errors.bodyTooLarge' })
   }
 })

@@ -103,6 +103,7 @@ export const TRIAGE_SOURCES = {
   pain: 'Night pain or pain worse on straining are NICE NG234 warning features; outside the spine a routine review: common practice',
   tingling: 'Tingling or numbness (nerve root, spinal cord or neuropathy): routine review, common practice; with spinal pain see NICE NG234',
   ctcae: 'CTCAE v5.0 (NCI, 2017)',
+  message: 'A message to the care team is answered within the clinic\'s routine response target: common practice',
   glucose: 'Home glucose at or above 300 mg/dL (16.7 mmol/L) needs same-day advice: from memory',
   ada: 'ADA Standards of Care 2025 (symptoms of high blood sugar); common practice',
   adaHigh: 'ADA Standards of Care 2025, section 2: random glucose 200 mg/dL (11.1 mmol/L) or more with symptoms of high blood sugar',

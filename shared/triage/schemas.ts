@@ -2,7 +2,7 @@ import { z } from 'zod'
 import { LEVELS } from './rules'
 import { idNumber, intQuery, safeText } from '../common/text'
 
-export const TRIAGE_SOURCES = ['diary', 'overdue-injection', 'lab', 'visit'] as const
+export const TRIAGE_SOURCES = ['diary', 'overdue-injection', 'lab', 'visit', 'message'] as const
 export type TriageSource = (typeof TRIAGE_SOURCES)[number]
 
 export const TRIAGE_STATUSES = ['new', 'in-progress', 'waiting', 'closed'] as const
@@ -16,6 +16,8 @@ export const TRIAGE_EVENT_TYPES = [
   'waiting', 'escalated', 'disposition-set', 'closed',
   // The entry's note was read; a right-now report added items; the rest of the diary arrived.
   'note-read', 'right-now-added', 'diary-completed',
+  // Another message from the patient's circle joined the thread's open item (issue 13).
+  'message-received',
 ] as const
 export type TriageEventType = (typeof TRIAGE_EVENT_TYPES)[number]
 

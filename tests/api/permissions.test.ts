@@ -1,5 +1,7 @@
+import { randomUUID } from 'node:crypto'
 import { readdirSync, readFileSync, statSync } from 'node:fs'
 import { join, relative } from 'node:path'
+import { PDFDocument } from 'pdf-lib'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { RunningApp } from '../support/app'
 import { startApp } from '../support/app'
@@ -20,29 +22,33 @@ import { MailCatcher } from '../support/mail-catcher'
  * see the record but not do this.
  */
 
-const ACTORS = ['self', 'otherPatient', 'caregiverNone', 'caregiverView', 'caregiverViewLog', 'caregiverViewAppointments', 'caregiverRevoked', 'nurse', 'clinician', 'admin'] as const
+const ACTORS = ['self', 'otherPatient', 'caregiverNone', 'caregiverView', 'caregiverViewLog', 'caregiverViewAppointments', 'caregiverMessages', 'caregiverRevoked', 'nurse', 'clinician', 'admin'] as const
 type Actor = (typeof ACTORS)[number]
 type Answer = 'ok' | 403 | 404
 
 const row = (...answers: Answer[]) => Object.fromEntries(ACTORS.map((actor, i) => [actor, answers[i]!])) as Record<Actor, Answer>
 
-/*                                      self  other caregiver: none view view+log view+appts revoked  nurse clinician admin */
+/*                                      self  other caregiver: none view view+log view+appts messages revoked  nurse clinician admin */
 const EXPECTED: Record<string, Record<Actor, Answer>> = {
-  'patient.read': /*                */ row('ok', 404, 404, 'ok', 'ok', 'ok', 404, 'ok', 'ok', 'ok'),
-  'diary.write': /*                 */ row('ok', 404, 404, 403, 'ok', 403, 404, 403, 403, 403),
-  'appointment.respond': /*         */ row('ok', 404, 404, 403, 403, 'ok', 404, 403, 403, 403),
-  'appointment.schedule': /*        */ row(403, 404, 404, 403, 403, 403, 404, 'ok', 'ok', 'ok'),
-  'injection.record': /*            */ row(403, 404, 404, 403, 403, 403, 404, 'ok', 'ok', 403),
-  'regimen.set': /*                 */ row(403, 404, 404, 403, 403, 403, 404, 'ok', 'ok', 403),
-  'labs.record': /*                 */ row(403, 404, 404, 403, 403, 403, 404, 'ok', 'ok', 403),
-  'circle.read': /*                 */ row('ok', 404, 404, 403, 403, 403, 404, 'ok', 'ok', 'ok'),
-  'circle.manage': /*               */ row('ok', 404, 404, 403, 403, 403, 404, 'ok', 403, 'ok'),
-  'access-history.read': /*         */ row('ok', 404, 404, 403, 403, 403, 404, 403, 403, 403),
-  'triage.work': /*                 */ row(403, 404, 404, 403, 403, 403, 404, 'ok', 'ok', 403),
-  'risk-profile.manage': /*         */ row(403, 404, 404, 403, 403, 403, 404, 'ok', 'ok', 403),
-  'contact.manage': /*              */ row('ok', 404, 404, 403, 403, 403, 404, 'ok', 'ok', 'ok'),
-  'monitoring.read': /*             */ row(403, 404, 404, 403, 403, 403, 404, 'ok', 'ok', 403),
-  'monitoring.manage': /*           */ row(403, 404, 404, 403, 403, 403, 404, 403, 'ok', 403),
+  'patient.read': /*                */ row('ok', 404, 404, 'ok', 'ok', 'ok', 'ok', 404, 'ok', 'ok', 'ok'),
+  'diary.write': /*                 */ row('ok', 404, 404, 403, 'ok', 403, 403, 404, 403, 403, 403),
+  'appointment.respond': /*         */ row('ok', 404, 404, 403, 403, 'ok', 403, 404, 403, 403, 403),
+  'appointment.schedule': /*        */ row(403, 404, 404, 403, 403, 403, 403, 404, 'ok', 'ok', 'ok'),
+  'injection.record': /*            */ row(403, 404, 404, 403, 403, 403, 403, 404, 'ok', 'ok', 403),
+  'regimen.set': /*                 */ row(403, 404, 404, 403, 403, 403, 403, 404, 'ok', 'ok', 403),
+  'labs.record': /*                 */ row(403, 404, 404, 403, 403, 403, 403, 404, 'ok', 'ok', 403),
+  'circle.read': /*                 */ row('ok', 404, 404, 403, 403, 403, 403, 404, 'ok', 'ok', 'ok'),
+  'circle.manage': /*               */ row('ok', 404, 404, 403, 403, 403, 403, 404, 'ok', 403, 'ok'),
+  'access-history.read': /*         */ row('ok', 404, 404, 403, 403, 403, 403, 404, 403, 403, 403),
+  'triage.work': /*                 */ row(403, 404, 404, 403, 403, 403, 403, 404, 'ok', 'ok', 403),
+  'risk-profile.manage': /*         */ row(403, 404, 404, 403, 403, 403, 403, 404, 'ok', 'ok', 403),
+  'contact.manage': /*              */ row('ok', 404, 404, 403, 403, 403, 403, 404, 'ok', 'ok', 'ok'),
+  'monitoring.read': /*             */ row(403, 404, 404, 403, 403, 403, 403, 404, 'ok', 'ok', 403),
+  'monitoring.manage': /*           */ row(403, 404, 404, 403, 403, 403, 403, 404, 403, 'ok', 403),
+  // Issue 13: messages are a caregiver permission of their own; admins take no part.
+  'message.read': /*                */ row('ok', 404, 404, 403, 403, 403, 'ok', 404, 'ok', 'ok', 403),
+  'message.write': /*               */ row('ok', 404, 404, 403, 403, 403, 'ok', 404, 'ok', 'ok', 403),
+  'message.manage': /*              */ row(403, 404, 404, 403, 403, 403, 403, 404, 'ok', 'ok', 403),
 }
 
 interface RouteOptions {
@@ -102,6 +108,15 @@ const ROUTES: Route[] = [
   ['POST', '/api/change-requests/:id/answer', 'appointment.schedule'],
   ['GET', '/api/triage/:id', 'triage.work', { roles: NURSES_AND_CLINICIANS }],
   ['POST', '/api/triage/:id/events', 'triage.work', { roles: NURSES_AND_CLINICIANS }],
+  ['GET', '/api/patients/:id/messages', 'message.read'],
+  ['POST', '/api/patients/:id/messages', 'message.write'],
+  ['POST', '/api/patients/:id/messages/read', 'message.read'],
+  ['POST', '/api/messages/:id/entered-in-error', 'message.manage'],
+  // An empty JSON body is no file: 400 at the upload's own check.
+  ['POST', '/api/patients/:id/attachments', 'message.write'],
+  // A pending file is its uploader's alone (404 to everyone else): this one was sent with a message.
+  ['GET', '/api/attachments/:id', 'message.read'],
+  ['POST', '/api/attachments/:id/file', 'message.manage'],
 ]
 
 const DEFAULT_OK: Record<string, number> = { GET: 200, POST: 400, PUT: 400, PATCH: 400, DELETE: 204 }
@@ -125,6 +140,8 @@ const PARAMS: [RegExp, (allowed: boolean) => Promise<number> | number][] = [
   [/^\/api\/appointments\/:id/, () => fixed.appointment!],
   [/^\/api\/change-requests\/:id/, () => fixed.changeRequest!],
   [/^\/api\/triage\/:id/, () => fixed.triageItem!],
+  [/^\/api\/messages\/:id/, () => fixed.message!],
+  [/^\/api\/attachments\/:id/, () => fixed.attachment!],
   [/:entryId/, () => fixed.diaryEntry!],
   [/:visitId/, () => fixed.visit!],
   // Every kit route validates its body first: an empty one answers 400 before the kit is looked for.
@@ -161,12 +178,13 @@ beforeAll(async () => {
   ids = await patientIds(app.url)
   const patientId = ids['LPU-1012']!
   mateo = await Client.signIn(app.url, 'mateo@demo.tidewell.test')
-  const add = (email: string, flags: { canLogDiary?: boolean, canManageAppointments?: boolean }) =>
+  const add = (email: string, flags: { canLogDiary?: boolean, canManageAppointments?: boolean, canMessage?: boolean }) =>
     addCaregiver(app.url, mail, mateo, patientId, { name: email.split('@')[0]!, email, ...flags })
   const view = await add('view@demo.tidewell.test', {})
   const viewLog = await add('view-log@demo.tidewell.test', { canLogDiary: true })
   const viewAppointments = await add('view-appointments@demo.tidewell.test', { canManageAppointments: true })
-  const revoked = await add('revoked@demo.tidewell.test', { canLogDiary: true, canManageAppointments: true })
+  const viewMessages = await add('view-messages@demo.tidewell.test', { canMessage: true })
+  const revoked = await add('revoked@demo.tidewell.test', { canLogDiary: true, canManageAppointments: true, canMessage: true })
   expect((await mateo.delete(`/api/patients/${patientId}/circle/${revoked.grantId}`)).status).toBe(204)
   Object.assign(people, {
     self: mateo,
@@ -175,6 +193,7 @@ beforeAll(async () => {
     caregiverView: view.caregiver,
     caregiverViewLog: viewLog.caregiver,
     caregiverViewAppointments: viewAppointments.caregiver,
+    caregiverMessages: viewMessages.caregiver,
     caregiverRevoked: revoked.caregiver,
     nurse: await Client.signIn(app.url, 'nurse@demo.tidewell.test'),
     clinician: await Client.signIn(app.url, 'clinician@demo.tidewell.test'),
@@ -197,7 +216,22 @@ beforeAll(async () => {
   const visit = await people.nurse.post(`/api/patients/${patientId}/visits`, { appointmentId: null })
   expect(visit.status).toBe(201)
   fixed.visit = visit.body.id
+  // A message of his with a file, for the routes about one message or attachment.
+  const form = new FormData()
+  form.append('file', new Blob([new Uint8Array(await minimalPdf())], { type: 'application/pdf' }), 'letter.pdf')
+  const uploaded = await fetch(new URL(`/api/patients/${patientId}/attachments`, app.url), { method: 'POST', headers: { origin: new URL(app.url).origin, cookie: mateo.cookieHeader() }, body: form })
+  expect(uploaded.status).toBe(201)
+  fixed.attachment = (await uploaded.json()).id
+  const message = await mateo.post(`/api/patients/${patientId}/messages`, { subject: 'Una pregunta', body: '¿Puedo viajar?', rightNow: [], attachmentIds: [fixed.attachment], requestId: randomUUID() })
+  expect(message.status).toBe(201)
+  fixed.message = message.body.id
 })
+
+async function minimalPdf() {
+  const document = await PDFDocument.create()
+  document.addPage()
+  return Buffer.from(await document.save())
+}
 afterAll(async () => {
   await app?.stop()
   await mail?.stop()

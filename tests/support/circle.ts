@@ -8,6 +8,7 @@ export interface CircleInvite {
   name: string
   canLogDiary?: boolean
   canManageAppointments?: boolean
+  canMessage?: boolean
   language?: 'en' | 'es'
 }
 
