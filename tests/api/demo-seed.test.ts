@@ -10,7 +10,7 @@ beforeAll(async () => {
 })
 afterAll(() => app?.stop())
 
-const TABLES = ['users', 'patients', 'care_grants', 'injections', 'appointments', 'diary_entries', 'triage_items', 'triage_events', 'monitoring_plans', 'monitoring_items']
+const TABLES = ['users', 'patients', 'care_grants', 'injections', 'appointments', 'diary_entries', 'triage_items', 'triage_events', 'monitoring_plans', 'monitoring_items', 'message_threads', 'messages', 'message_reads']
 
 async function counts() {
   return Object.fromEntries(await Promise.all(TABLES.map(async t => [t, (await sql<{ n: number }>(app.dbPath, `SELECT COUNT(*) AS n FROM ${t}`))[0]!.n])))
@@ -69,6 +69,18 @@ describe('the demo clinic', () => {
     // LPU-1008's bone scan was 800 days ago (every 730 days); "due this month" depends on the day the demo is seeded.
     expect(due.some(row => row.state === 'overdue')).toBe(true)
     expect(due.every(row => row.state === 'overdue' || row.state === 'due-this-month')).toBe(true)
+  })
+
+  it('has a few invented conversations, with nothing new for the triage queue', async () => {
+    const patient = await Client.signIn(app.url, 'patient@demo.tidewell.test')
+    const { body } = await patient.get('/api/me/patients')
+    const view = (await patient.get(`/api/patients/${body[0].patientId}/messages`)).body
+    expect(view.threads[0]).toMatchObject({ subject: 'Hot flushes at night', unread: 0 })
+    expect(view.threads[0].messages.map((m: { author: { relation: string } }) => m.author.relation)).toEqual(['self', 'staff', 'self'])
+    const kenji = await Client.signIn(app.url, 'kenji@demo.tidewell.test')
+    expect((await kenji.get('/api/me/unread')).body.unread).toBe(1)
+    expect((await sql<{ n: number }>(app.dbPath, 'SELECT COUNT(*) AS n FROM messages'))[0]!.n).toBe(6)
+    expect((await sql<{ n: number }>(app.dbPath, 'SELECT COUNT(*) AS n FROM triage_items WHERE source = \'message\''))[0]!.n).toBe(0)
   })
 
   it('seeding again on the same database changes nothing', async () => {

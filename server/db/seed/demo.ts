@@ -5,6 +5,7 @@ import { riskProfileOf } from '#shared/triage/risk-profile'
 import type { ContactPreference, PatientPhone } from '#shared/contact/schemas'
 import type { Language, Role } from '#shared/auth/roles'
 import { seedDemoLabs } from './labs'
+import { seedDemoConversations } from './messages'
 import { seedDemoMonitoring } from './monitoring'
 import { seedDemoSchedules } from './schedule'
 
@@ -129,6 +130,7 @@ const STEPS: [string, SeedStep][] = [
   }],
   // After the contacts: ECG and electrolytes follow the risk profile.
   ['monitoring', seedDemoMonitoring],
+  ['conversations', seedDemoConversations],
 ]
 
 /** Runs each step that has not run on this database yet; running it again changes nothing. */
