@@ -70,7 +70,7 @@ describe('inviting a caregiver who is new to Tidewell', () => {
     const session = (await visitor.get('/api/_auth/session')).body.user
     expect(session).toMatchObject({ name: 'Adaeze Osei-Mensah', role: 'caregiver', language: 'es', patientId: null })
     expect((await visitor.get('/api/me/patients')).body).toEqual([
-      { patientId, name: 'Franklin Osei-Mensah', relation: 'caregiver', canLogDiary: true, canManageAppointments: false },
+      { patientId, name: 'Franklin Osei-Mensah', relation: 'caregiver', canLogDiary: true, canManageAppointments: false, canMessage: false },
     ])
     expect((await visitor.get(`/api/patients/${patientId}`)).status).toBe(200)
 
@@ -223,6 +223,19 @@ describe('changing and removing', () => {
     const elias = await Client.signIn(app.url, 'patient@demo.tidewell.test')
     expect((await elias.patch(`/api/patients/${ids['LPU-1001']}/circle/${grantId}`, { canLogDiary: true, canManageAppointments: true })).status).toBe(404)
     expect((await elias.delete(`/api/patients/${ids['LPU-1001']}/circle/${grantId}`)).status).toBe(404)
+  })
+
+  it('the messages permission is granted like the others, and a change that leaves it out keeps it', async () => {
+    const desmond = await Client.signIn(app.url, 'desmond@demo.tidewell.test')
+    const patientId = ids['LPU-1009']!
+    const { caregiver, grantId } = await addCaregiver(app.url, mail, desmond, patientId, { name: 'Ottoline Laurier', email: 'ottoline@demo.tidewell.test', canMessage: true })
+    expect((await caregiver.get('/api/me/patients')).body[0]).toMatchObject({ canLogDiary: false, canManageAppointments: false, canMessage: true })
+    expect((await caregiver.get(`/api/patients/${patientId}/messages`)).status).toBe(200)
+    const kept = await desmond.patch(`/api/patients/${patientId}/circle/${grantId}`, { canLogDiary: true, canManageAppointments: false })
+    expect(kept.body).toMatchObject({ canLogDiary: true, canMessage: true })
+    const off = await desmond.patch(`/api/patients/${patientId}/circle/${grantId}`, { canLogDiary: true, canManageAppointments: false, canMessage: false })
+    expect(off.body).toMatchObject({ canMessage: false })
+    expect((await caregiver.get(`/api/patients/${patientId}/messages`)).status).toBe(403)
   })
 
   it('removal takes effect on the very next request, in the same session', async () => {
