@@ -130,6 +130,8 @@ function registerMonitoringAssociations() {
   MonitoringPlan.hasMany(MonitoringItem, { foreignKey: { name: 'planId', field: 'plan_id', allowNull: false }, as: 'items' })
   MonitoringItem.belongsTo(MonitoringPlan, { foreignKey: { name: 'planId', field: 'plan_id', allowNull: false }, as: 'plan' })
   MonitoringItem.belongsTo(Patient, { foreignKey: patientKey, as: 'patient' })
+}
+
 /** Messages: threads per patient, their messages, who read each, and the files sent. */
 function registerMessageAssociations() {
   const patientKey = { name: 'patientId', field: 'patient_id', allowNull: false }
