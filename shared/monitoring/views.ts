@@ -1,15 +1,9 @@
-import type { MonitoringDueState, MonitoringKind, MonitoringSourceKey } from './rules'
+import type { MonitoringDueState, MonitoringKind, MonitoringSourceKey, PlanItem } from './rules'
 import type { LabResultView } from '../labs/views'
 
-/** One item of the plan as staff read it. */
-export interface MonitoringItemView {
+/** One item of the plan as staff read it: the item as the rules read it, its id and where it stands. */
+export interface MonitoringItemView extends PlanItem {
   id: number
-  kind: MonitoringKind
-  intervalDays: number
-  firstDueOn: string
-  lastDoneOn: string | null
-  active: boolean
-  note: string | null
   /** Null when the item is not active. */
   dueOn: string | null
   state: MonitoringDueState | null
