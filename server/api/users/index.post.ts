@@ -25,9 +25,8 @@ export default defineEventHandler(async (event) => {
         : null
       const token = await issueToken({ userId: user.id, purpose: 'invite' }, transaction)
       await enqueueMail({
-        to: user.email,
+        ...mailTo(user),
         template: 'invite',
-        language: user.language,
         params: { name: user.name, inviter: actor.name },
         linkPath: `/set-password?token=${token}&welcome=1`,
       }, transaction)

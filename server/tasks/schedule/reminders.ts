@@ -32,9 +32,8 @@ export default defineTask({
       const lead = reminderLead(daysUntil, clock.settings.reminderLeadDays)
       if (lead === null) continue
       const queued = await sequelize.transaction(transaction => enqueueMail({
-        to: user.email,
+        ...mailTo(user),
         template: 'appointmentReminder',
-        language: user.language,
         params: { name: user.name, when: formatAppointmentTime(appointment.startsAt, user.language, tz), place: appointment.place, days: daysUntil },
         linkPath: '/today',
         attachments: [calendarAttachment(appointment, { language: user.language, settings: clock.settings })],
@@ -54,9 +53,8 @@ export default defineTask({
       if (schedule.state === 'not-started' || schedule.daysToDue === null || schedule.daysToDue > PLEASE_BOOK_DAYS) continue
       const user = patient.user!
       const queued = await sequelize.transaction(transaction => enqueueMail({
-        to: user.email,
+        ...mailTo(user),
         template: 'pleaseBook',
-        language: user.language,
         params: { name: user.name, date: formatCalendarDate(schedule.dueDate!, user.language), clinic: clock.settings.clinicName },
         linkPath: '/today',
         // Once per due date.

@@ -24,9 +24,8 @@ export function processResetRequests(): Promise<number> {
           if (!user) return
           const token = await issueToken({ userId: user.id, purpose: 'reset' }, transaction, parseDbDate(row.requestedAt))
           await enqueueMail({
-            to: user.email,
+            ...mailTo(user),
             template: 'reset',
-            language: user.language,
             params: { name: user.name },
             linkPath: `/set-password?token=${token}`,
           }, transaction)

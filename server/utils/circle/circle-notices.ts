@@ -16,9 +16,8 @@ export async function noticeCircleChangedByStaff(relation: string, patient: Pati
   const owner = await User.findByPk(patient.userId, { transaction })
   if (!owner?.active) return
   await enqueueMail({
-    to: owner.email,
+    ...mailTo(owner),
     template: 'circleChangedByClinic',
-    language: owner.language,
     params: { name: owner.name },
     linkPath: '/circle',
   }, transaction)
@@ -29,9 +28,8 @@ export async function noticeCaregiverRemoved(caregiverUserId: number, transactio
   const caregiver = await User.findByPk(caregiverUserId, { transaction })
   if (!caregiver?.active) return
   await enqueueMail({
-    to: caregiver.email,
+    ...mailTo(caregiver),
     template: 'circleRemoved',
-    language: caregiver.language,
     params: { name: caregiver.name },
   }, transaction)
 }

@@ -294,9 +294,8 @@ export async function sendDiaryReminders(now: Date): Promise<number> {
     if (weeks < 1) continue
     await sequelize.transaction(async (transaction) => {
       const created = await enqueueMail({
-        to: user.email,
+        ...mailTo(user),
         template: 'diaryReminder',
-        language: user.language,
         params: { name: user.name },
         linkPath: '/diary/new',
         dedupeKey: `diary-reminder:${patient.id}:${since.toISOString()}:${weeks}`,

@@ -28,6 +28,9 @@ export interface QueuedMail {
   dedupeKey?: string
 }
 
+/** Where an e-mail to a person goes and in which language: his address, his language. */
+export const mailTo = (person: { email: string, language: Language }) => ({ to: person.email, language: person.language })
+
 /**
  * Writes an e-mail to the outbox inside the caller's transaction, so the e-mail exists if
  * and only if the change that caused it was committed. Returns false for a duplicate key.

@@ -184,9 +184,8 @@ async function announceMessage(patient: Patient, message: Message, author: Sessi
     const staff = addresses.length ? await User.findAll({ where: { email: addresses, active: true }, transaction }) : []
     for (const nurse of staff.filter(s => s.id !== author.id)) {
       await enqueueMail({
-        to: nurse.email,
+        ...mailTo(nurse),
         template: 'messageForCareTeam',
-        language: nurse.language,
         params: { reference: itemReference(item.id) },
         linkPath: `/staff/triage/${item.id}`,
         dedupeKey: `message:${message.id}:${nurse.email}`,
@@ -203,9 +202,8 @@ async function announceMessage(patient: Patient, message: Message, author: Sessi
   const people = [owner, ...grants.map(g => g.caregiver)].filter((u): u is User => !!u && u.active && u.id !== author.id)
   for (const person of people) {
     await enqueueMail({
-      to: person.email,
+      ...mailTo(person),
       template: 'messageForCircle',
-      language: person.language,
       params: { name: person.name },
       linkPath: '/messages',
       dedupeKey: `message:${message.id}:${person.email}`,

@@ -30,9 +30,8 @@ export async function queueMonitoringReminders(clock: ScheduleClock): Promise<nu
   let queued = 0
   for (const [patientId, { dueOn, user }] of earliest) {
     const sent = await sequelize.transaction(transaction => enqueueMail({
-      to: user.email,
+      ...mailTo(user),
       template: 'monitoringDue',
-      language: user.language,
       params: { name: user.name, clinic: clock.settings.clinicName },
       linkPath: '/labs',
       dedupeKey: `monitoring-due:${patientId}:${dueOn}`,

@@ -194,9 +194,8 @@ export async function bookAppointment(booking: Booking, clock: ScheduleClock, tr
   }, { transaction })
   if (patientUser?.active) {
     await enqueueMail({
-      to: patientUser.email,
+      ...mailTo(patientUser),
       template: 'appointmentBooked',
-      language: patientUser.language,
       params: { name: patientUser.name, when: formatAppointmentTime(booking.startsAt, patientUser.language, clock.settings.timeZone), place: booking.place },
       linkPath: '/today',
       attachments: [calendarAttachment(created, { language: patientUser.language, settings: clock.settings })],

@@ -33,9 +33,8 @@ async function recipients(addresses: string[], transaction: Transaction) {
 export async function alertStaff(item: TriageItem, template: 'triageAlert' | 'triageEscalation', addresses: string[], transaction: Transaction, occasion = 'first') {
   for (const to of await recipients(addresses, transaction)) {
     await enqueueMail({
-      to: to.email,
+      ...mailTo(to),
       template,
-      language: to.language,
       params: { reference: itemReference(item.id), level: translate(to.language, `triage.levels.${item.level}`) },
       linkPath: `/staff/triage/${item.id}`,
       dedupeKey: `${template}:${item.id}:${occasion}:${to.email}`,

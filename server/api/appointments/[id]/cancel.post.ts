@@ -28,9 +28,8 @@ export default defineEventHandler(async (event) => {
     const patientUser = await User.findByPk(access.patient.userId, { transaction })
     if (patientUser?.active) {
       await enqueueMail({
-        to: patientUser.email,
+        ...mailTo(patientUser),
         template: 'appointmentCancelled',
-        language: patientUser.language,
         params: { name: patientUser.name, when: formatAppointmentTime(appointment.startsAt, patientUser.language, clock.settings.timeZone) },
         linkPath: '/today',
         dedupeKey: `appointment-cancelled:${appointment.id}`,

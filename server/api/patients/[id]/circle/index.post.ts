@@ -50,9 +50,8 @@ export default defineEventHandler(async (event) => {
     }, { transaction })
     const token = await issueToken({ userId: null, purpose: 'circle-invite', data: { invitationId: created.id } }, transaction, now)
     await enqueueMail({
-      to: created.email,
+      ...mailTo(created),
       template: 'circleInvite',
-      language: created.language,
       params: { name: account?.name ?? created.name },
       linkPath: `/circle/accept?token=${token}`,
     }, transaction)
