@@ -9,6 +9,7 @@ import { RecordModel } from './columns'
 export class MessageThread extends RecordModel<InferAttributes<MessageThread>, InferCreationAttributes<MessageThread>> {
   declare patientId: ForeignKey<Patient['id']>
   declare subject: string
+  // Who started it (the patient's circle or staff), and when the last message came.
   declare startedByUserId: ForeignKey<User['id']>
   declare lastMessageAt: Date
   declare messages?: NonAttribute<Message[]>

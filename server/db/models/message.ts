@@ -14,16 +14,19 @@ import { FormRecordModel, requestIdColumn } from './columns'
 export class Message extends FormRecordModel<InferAttributes<Message>, InferCreationAttributes<Message>> {
   declare threadId: ForeignKey<MessageThread['id']>
   declare patientId: ForeignKey<Patient['id']>
+  declare thread?: NonAttribute<MessageThread>
+  // Who wrote it, and what.
   declare authorUserId: ForeignKey<User['id']>
+  declare author?: NonAttribute<User>
   declare body: string
+  // Entered in error: by whom, when and why (kept; hidden from his circle).
   declare enteredInErrorAt: Date | null
   declare enteredInErrorByUserId: ForeignKey<User['id']> | null
-  declare enteredInErrorReason: string | null
-  declare author?: NonAttribute<User>
   declare enteredInErrorBy?: NonAttribute<User | null>
+  declare enteredInErrorReason: string | null
+  // Its files, and who has read it.
   declare attachments?: NonAttribute<Attachment[]>
   declare reads?: NonAttribute<MessageRead[]>
-  declare thread?: NonAttribute<MessageThread>
 
   static initModel(sequelize: Sequelize) {
     Message.initRecord(sequelize, 'messages', {

@@ -24,16 +24,18 @@ export class MonitoringPlan extends RecordModel<InferAttributes<MonitoringPlan>,
 
 /** One check of the plan: its interval, first-due and last-done dates. */
 export class MonitoringItem extends RecordModel<InferAttributes<MonitoringItem>, InferCreationAttributes<MonitoringItem>> {
+  // Whose plan it is part of (the patient is kept on the item too, so every read is scoped).
   declare planId: ForeignKey<MonitoringPlan['id']>
   declare patientId: ForeignKey<Patient['id']>
+  declare plan?: NonAttribute<MonitoringPlan>
+  declare patient?: NonAttribute<Patient>
+  // The check: which, how often, from when, when last done; off for men it is not for.
   declare kind: MonitoringKind
   declare intervalDays: number
   declare firstDueOn: string
   declare lastDoneOn: string | null
   declare active: CreationOptional<boolean>
   declare note: string | null
-  declare plan?: NonAttribute<MonitoringPlan>
-  declare patient?: NonAttribute<Patient>
 
   static initModel(sequelize: Sequelize) {
     MonitoringItem.initRecord(sequelize, 'monitoring_items', {
