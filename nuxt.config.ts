@@ -170,6 +170,8 @@ export default defineNuxtConfig({
       // Daily at 14:00 UTC, early morning in the demo clinic (America/Chicago).
       '0 14 * * *': ['schedule:reminders'],
       '0 15 * * *': ['diary:remind'],
+      // Uploads never sent: their files and rows go a day after they were made.
+      '30 3 * * *': ['attachments:prune'],
     },
   },
   i18n: {

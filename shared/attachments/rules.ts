@@ -11,6 +11,12 @@ export const ATTACHMENT_MAX_BYTES = 10 * 1024 * 1024
 /** At most this many files on one message. */
 export const ATTACHMENTS_PER_MESSAGE = 4
 
+/**
+ * An upload never sent with a message (nor filed into the record) is removed, file and
+ * row, once it is this many hours old (the attachments:prune task, daily).
+ */
+export const PENDING_UPLOAD_HOURS = 24
+
 /** A photo is re-encoded to fit inside this many pixels on its longer edge. */
 export const IMAGE_MAX_EDGE = 2400
 

@@ -57,6 +57,8 @@ export interface TriageDetailView extends TriageRowView {
   entry: DiaryEntryView | null
   /** The entry's note has been marked read by someone on the care team. */
   noteRead: boolean
+  /** A message item: a nurse or clinician has answered in the thread (it may close without an outcome). */
+  answered: boolean
   riskProfile: RiskProfile
   /** How to reach him: his phones (tel: links on the page), best times, preference. */
   contact: PatientContactView

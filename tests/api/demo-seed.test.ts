@@ -75,11 +75,18 @@ describe('the demo clinic', () => {
     const patient = await Client.signIn(app.url, 'patient@demo.tidewell.test')
     const { body } = await patient.get('/api/me/patients')
     const view = (await patient.get(`/api/patients/${body[0].patientId}/messages`)).body
-    expect(view.threads[0]).toMatchObject({ subject: 'Hot flushes at night', unread: 0 })
-    expect(view.threads[0].messages.map((m: { author: { relation: string } }) => m.author.relation)).toEqual(['self', 'staff', 'self'])
+    type Thread = { subject: string, messages: { author: { name: string, relation: string, onBehalf: boolean } }[] }
+    const thread = (subject: string) => (view.threads as Thread[]).find(t => t.subject === subject)!
+    expect(thread('Hot flushes at night')).toMatchObject({ unread: 0 })
+    expect(thread('Hot flushes at night').messages.map(m => m.author.relation)).toEqual(['self', 'staff', 'self'])
+    // Marisol, the demo caregiver allowed to message, asked one question on his behalf.
+    expect(thread('Lift to the next appointment').messages[0]!.author).toMatchObject({ name: 'Marisol Marwood', relation: 'caregiver', onBehalf: true })
+    const marisol = await Client.signIn(app.url, 'caregiver@demo.tidewell.test')
+    expect((await marisol.get('/api/me/patients')).body[0]).toMatchObject({ canMessage: true })
+    expect((await marisol.get('/api/me/unread')).body.unread).toBe(0)
     const kenji = await Client.signIn(app.url, 'kenji@demo.tidewell.test')
     expect((await kenji.get('/api/me/unread')).body.unread).toBe(1)
-    expect((await sql<{ n: number }>(app.dbPath, 'SELECT COUNT(*) AS n FROM messages'))[0]!.n).toBe(6)
+    expect((await sql<{ n: number }>(app.dbPath, 'SELECT COUNT(*) AS n FROM messages'))[0]!.n).toBe(8)
     expect((await sql<{ n: number }>(app.dbPath, 'SELECT COUNT(*) AS n FROM triage_items WHERE source = \'message\''))[0]!.n).toBe(0)
   })
 

@@ -345,3 +345,79 @@ describe('attachments', () => {
     expect(thread.messages[0].attachments[0]).toMatchObject({ id: stored.body.id, labResultId: filed.body.labResult.id })
   })
 })
+
+describe('closing a message item', () => {
+  /** A new thread from him: its id and the queue item it opened (the newest for him). */
+  const item = async (subject: string) => {
+    const sent = await send(howard, { subject, body: `About ${subject}` })
+    expect(sent.status).toBe(201)
+    return { threadId: sent.body.threadId as number, itemId: Math.max(...(await messageItems()).map(i => i.id)) }
+  }
+  const close = (itemId: number) => nurse.post(`/api/triage/${itemId}/events`, { type: 'close' })
+
+  it('needs an answer or an outcome: refused at the field until the nurse answers, then closes with the answer on its timeline', async () => {
+    const { threadId, itemId } = await item('Close with an answer')
+    expect((await nurse.get(`/api/triage/${itemId}`)).body.answered).toBe(false)
+    const refused = await close(itemId)
+    expect(refused.status).toBe(400)
+    expect(refused.body.message).toBe('errors.answerOrDispositionRequired')
+    expect(refused.body.data.fieldErrors.disposition).toEqual(['validation.triage.dispositionOrAnswer'])
+    const answer = await send(nurse, { threadId, body: 'Thank you, we have read it and will call you tomorrow morning.' })
+    expect(answer.status).toBe(201)
+    expect((await nurse.get(`/api/triage/${itemId}`)).body.answered).toBe(true)
+    expect((await close(itemId)).status).toBe(200)
+    const closed = (await nurse.get(`/api/triage/${itemId}`)).body
+    expect(closed).toMatchObject({ status: 'closed', disposition: null })
+    expect(closed.events.find((e: { type: string }) => e.type === 'closed').data).toEqual({ answeredBy: answer.body.id })
+    // A new message in the thread after that opens a new item: the closed one stays closed.
+    expect((await send(howard, { threadId, body: 'One more question' })).status).toBe(201)
+    expect(Math.max(...(await messageItems()).map(i => i.id))).toBeGreaterThan(itemId)
+  })
+
+  it('an answer entered in error does not count: the item stays open until a standing answer or an outcome', async () => {
+    const { threadId, itemId } = await item('Answer in error')
+    const wrong = await send(nurse, { threadId, body: 'Meant for another patient' })
+    expect((await nurse.post(`/api/messages/${wrong.body.id}/entered-in-error`, { reason: 'Wrong patient' })).status).toBe(200)
+    expect((await nurse.get(`/api/triage/${itemId}`)).body.answered).toBe(false)
+    expect((await close(itemId)).status).toBe(400)
+    expect((await nurse.post(`/api/triage/${itemId}/events`, { type: 'disposition', disposition: 'no-action' })).status).toBe(200)
+    expect((await close(itemId)).status).toBe(200)
+  })
+
+  it('an item of another kind still needs an outcome: an answer in a thread does not close it', async () => {
+    const queue = (await nurse.get('/api/triage?pageSize=100&status=open')).body.items as { id: number, source: string, disposition: string | null, status: string }[]
+    const other = queue.find(i => i.source !== 'message' && !i.disposition && i.status !== 'closed')!
+    expect(other).toBeDefined()
+    const refused = await close(other.id)
+    expect(refused.status).toBe(400)
+    expect(refused.body.message).toBe('errors.dispositionRequired')
+  })
+})
+
+describe('uploads never sent', () => {
+  it('are removed, file and row, a day after they were made; a sent one and a fresh one stay', async () => {
+    const pendingBytes = await pdfBytes(3)
+    const pending = (await upload(howard, pendingBytes, 'never-sent.pdf')).body as { id: number }
+    const sentUpload = (await upload(howard, await pdfBytes(4), 'sent.pdf')).body as { id: number }
+    expect((await send(howard, { subject: 'Kept', body: 'This one is sent', attachmentIds: [sentUpload.id] })).status).toBe(201)
+    const objects = () => {
+      const files = (dir: string): string[] => readdirSync(dir).flatMap(name => statSync(join(dir, name)).isDirectory() ? files(join(dir, name)) : [join(dir, name)])
+      return files(join(app.dataDir, 'objects')).map(file => readFileSync(file))
+    }
+    expect(objects().some(bytes => bytes.equals(pendingBytes))).toBe(true)
+    const prune = async (hoursAhead: number) => (await admin.post('/api/admin/tasks/attachments:prune', { now: new Date(Date.now() + hoursAhead * 3600_000).toISOString() })).body.result.removed as number
+    // 23 hours on: not yet a day old, so it stays (other tests' pending uploads too).
+    expect(await prune(23)).toBe(0)
+    expect((await download(howard, pending.id)).status).toBe(200)
+    // 25 hours on: gone from the app and from the object store; the sent file stays.
+    expect(await prune(25)).toBeGreaterThanOrEqual(1)
+    expect((await download(howard, pending.id)).status).toBe(404)
+    expect(objects().some(bytes => bytes.equals(pendingBytes))).toBe(false)
+    expect((await download(howard, sentUpload.id)).status).toBe(200)
+    // Too late to send it now: the message is refused at the field, nothing stored.
+    const late = await send(howard, { subject: 'Late', body: 'x', attachmentIds: [pending.id] })
+    expect(late.status).toBe(400)
+    expect(late.body.data.fieldErrors.attachmentIds).toEqual(['validation.messages.attachment'])
+    expect(await prune(25)).toBe(0)
+  })
+})

@@ -47,9 +47,9 @@ export const DEMO_PATIENTS: (DemoPerson & { clinicNumber: string, dateOfBirth: s
   { email: 'mateo@demo.tidewell.test', name: 'Mateo Quiñones Reyes', role: 'patient', language: 'es', clinicNumber: 'LPU-1012', dateOfBirth: '1954-08-21' },
 ]
 
-export const DEMO_CAREGIVERS: (DemoPerson & { forPatient: string, canLogDiary: boolean, canManageAppointments: boolean })[] = [
-  { email: 'caregiver@demo.tidewell.test', name: 'Marisol Marwood', role: 'caregiver', forPatient: 'LPU-1001', canLogDiary: true, canManageAppointments: true },
-  { email: 'dana@demo.tidewell.test', name: 'Dana Achterberg', role: 'caregiver', forPatient: 'LPU-1002', canLogDiary: false, canManageAppointments: false },
+export const DEMO_CAREGIVERS: (DemoPerson & { forPatient: string, canLogDiary: boolean, canManageAppointments: boolean, canMessage: boolean })[] = [
+  { email: 'caregiver@demo.tidewell.test', name: 'Marisol Marwood', role: 'caregiver', forPatient: 'LPU-1001', canLogDiary: true, canManageAppointments: true, canMessage: true },
+  { email: 'dana@demo.tidewell.test', name: 'Dana Achterberg', role: 'caregiver', forPatient: 'LPU-1002', canLogDiary: false, canManageAppointments: false, canMessage: false },
 ]
 
 /*
@@ -99,6 +99,7 @@ const STEPS: [string, SeedStep][] = [
         grantedByUserId: patientUser?.id ?? admin.id,
         canLogDiary: person.canLogDiary,
         canManageAppointments: person.canManageAppointments,
+        canMessage: person.canMessage,
         revokedAt: null,
       }, { transaction })
     }

@@ -14,15 +14,25 @@ interface DemoThread { patient: string, subject: string, messages: DemoMessage[]
 const NURSE = 'nurse@demo.tidewell.test'
 const NURSE2 = 'nurse2@demo.tidewell.test'
 const CLINICIAN = 'clinician@demo.tidewell.test'
+/** His wife, the demo caregiver allowed to message: she has read his conversations. */
+const MARISOL = 'caregiver@demo.tidewell.test'
 
 const CONVERSATIONS: DemoThread[] = [
   {
     patient: 'LPU-1001',
     subject: 'Hot flushes at night',
     messages: [
-      { from: 'patient@demo.tidewell.test', daysAgo: 9, body: 'The hot flushes wake me two or three times a night since the last injection. Is there anything I can try before my next visit?', readBy: [NURSE] },
-      { from: NURSE, daysAgo: 8, body: 'Thank you for telling us. A cooler bedroom, a fan and layers you can take off often help, and cutting back on coffee and alcohol in the evening. Please keep logging them in the weekly diary; we will talk about other options at your next visit.', readBy: ['patient@demo.tidewell.test'] },
-      { from: 'patient@demo.tidewell.test', daysAgo: 8, body: 'Thank you, I will try the fan.', readBy: [NURSE] },
+      { from: 'patient@demo.tidewell.test', daysAgo: 9, body: 'The hot flushes wake me two or three times a night since the last injection. Is there anything I can try before my next visit?', readBy: [NURSE, MARISOL] },
+      { from: NURSE, daysAgo: 8, body: 'Thank you for telling us. A cooler bedroom, a fan and layers you can take off often help, and cutting back on coffee and alcohol in the evening. Please keep logging them in the weekly diary; we will talk about other options at your next visit.', readBy: ['patient@demo.tidewell.test', MARISOL] },
+      { from: 'patient@demo.tidewell.test', daysAgo: 8, body: 'Thank you, I will try the fan.', readBy: [NURSE, MARISOL] },
+    ],
+  },
+  {
+    patient: 'LPU-1001',
+    subject: 'Lift to the next appointment',
+    messages: [
+      { from: MARISOL, daysAgo: 4, body: 'I will drive him to the next injection. Can I wait with him in the room while the nurse gives it?', readBy: [NURSE2, 'patient@demo.tidewell.test'] },
+      { from: NURSE2, daysAgo: 3, body: 'Yes, of course. Please come ten minutes early so we can go through his week together first.', readBy: [MARISOL, 'patient@demo.tidewell.test'] },
     ],
   },
   {

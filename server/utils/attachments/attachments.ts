@@ -1,9 +1,10 @@
 import { randomUUID } from 'node:crypto'
 import type { H3Event } from 'h3'
 import { createError, readMultipartFormData } from 'h3'
+import { Op } from 'sequelize'
 import type { User as SessionUser } from '#auth-utils'
 import { isStaff } from '#shared/auth/roles'
-import { safeFileName } from '#shared/attachments/rules'
+import { PENDING_UPLOAD_HOURS, safeFileName } from '#shared/attachments/rules'
 import type { Patient } from '../../db/models'
 import { Attachment, Message } from '../../db/models'
 import { checkFile } from './content'
@@ -68,4 +69,26 @@ export async function findAttachment(id: number): Promise<Attachment> {
 export function downloadDisposition(fileName: string): string {
   const ascii = fileName.replace(/[^\x20-\x7e]/g, '_').replace(/[\\"]/g, '_')
   return `attachment; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(fileName)}`
+}
+
+/**
+ * Removes the uploads nobody sent: pending (on no message, filed as no result) and older
+ * than PENDING_UPLOAD_HOURS. Each row goes in its own conditional DELETE, so an upload sent
+ * with a message at that very moment stays (the send then finds it gone and says so at the
+ * field, the message unsent); its file is removed from the store after the row. Returns how
+ * many were removed (a file the store could not remove is logged, its row already gone).
+ */
+export async function prunePendingUploads(now: Date): Promise<number> {
+  const cutoff = new Date(now.getTime() - PENDING_UPLOAD_HOURS * 3600_000)
+  const pending = { messageId: { [Op.is]: null }, labResultId: { [Op.is]: null } }
+  const stale = await Attachment.findAll({ where: { ...pending, createdAt: { [Op.lt]: cutoff } }, attributes: ['id', 'objectKey'], order: [['id', 'ASC']] })
+  let removed = 0
+  for (const upload of stale) {
+    if (!await Attachment.destroy({ where: { id: upload.id, ...pending } })) continue
+    removed++
+    await deleteObject(upload.objectKey).catch((error: unknown) => {
+      console.error(`[tidewell] attachments:prune could not remove ${upload.objectKey}:`, error instanceof Error ? error.message : error)
+    })
+  }
+  return removed
 }

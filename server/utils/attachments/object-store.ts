@@ -1,4 +1,4 @@
-import { CreateBucketCommand, GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3'
+import { CreateBucketCommand, DeleteObjectCommand, GetObjectCommand, HeadBucketCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3'
 
 /*
  * Attachments live in an object store spoken to through the S3 API (@aws-sdk/client-s3).
@@ -75,4 +75,11 @@ export async function getObject(key: string): Promise<Buffer> {
   const answer = await client.send(new GetObjectCommand({ Bucket: bucket, Key: key }))
   if (!answer.Body) throw createError({ statusCode: 404, message: 'errors.notFound' })
   return Buffer.from(await answer.Body.transformToByteArray())
+}
+
+/** Removes one object (no error when it is already gone: S3 answers 204 either way). */
+export async function deleteObject(key: string): Promise<void> {
+  await ensureBucket()
+  const { client, bucket } = store()
+  await client.send(new DeleteObjectCommand({ Bucket: bucket, Key: key }))
 }

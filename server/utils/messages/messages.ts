@@ -311,3 +311,16 @@ export async function unreadCountFor(user: SessionUser): Promise<number> {
   { replacements: { patientIds, userId: user.id } })
   return Number((rows as { n: number }[])[0]?.n ?? 0)
 }
+
+/**
+ * The staff answer that lets a message item close without an outcome: the latest message a
+ * nurse or clinician sent in the thread while the item was open (recorded on the item as a
+ * 'message-sent' event with its message), still standing (not entered in error). Null: none.
+ */
+export async function itemAnswer(itemId: number, transaction?: Transaction): Promise<{ messageId: number } | null> {
+  const sent = await TriageEvent.findAll({ where: { itemId, type: 'message-sent' }, attributes: ['data'], transaction })
+  const ids = sent.map(e => Number(e.data?.messageId)).filter(id => Number.isInteger(id) && id > 0)
+  if (!ids.length) return null
+  const answer = await Message.findOne({ where: { id: ids, enteredInErrorAt: { [Op.is]: null } }, order: [['id', 'DESC']], attributes: ['id'], transaction })
+  return answer ? { messageId: answer.id } : null
+}

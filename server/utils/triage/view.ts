@@ -67,6 +67,7 @@ export async function triageDetail(item: TriageItem, now: Date): Promise<TriageD
     })),
     entry: entry ? diaryView(entry, attributionOf(entry.enteredBy!, patient.userId), item) : null,
     noteRead: events.some(e => e.type === 'note-read'),
+    answered: item.source === 'message' && item.status !== 'closed' ? !!await itemAnswer(item.id) : false,
     riskProfile: riskProfileOf(patient.riskProfile),
     contact: contactOf(patient),
     caregivers,

@@ -1,7 +1,7 @@
 import { z } from 'zod'
 
 const bodySchema = z.object({ now: z.string().datetime().optional() }).strict()
-const TASKS = ['outbox:send', 'triage:escalate', 'triage:overdue', 'diary:remind', 'schedule:reminders'] as const
+const TASKS = ['outbox:send', 'triage:escalate', 'triage:overdue', 'diary:remind', 'schedule:reminders', 'attachments:prune'] as const
 
 /**
  * Runs a scheduled task now (admins). A test may pass `now` to run it as of another time,

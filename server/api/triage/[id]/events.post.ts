@@ -72,11 +72,20 @@ export default defineEventHandler(async (event) => {
         await log('note-read')
         break
       }
-      case 'close':
-        if (!item.disposition) throw fieldError('disposition', 'validation.triage.disposition', 400, 'errors.dispositionRequired')
-        await change({ status: 'closed', closedAt: now }, { disposition: { [Op.ne]: null } })
-        await log('closed', { disposition: item.disposition })
+      case 'close': {
+        // Closing needs an outcome; a message item may close with the answer sent instead.
+        if (item.disposition) {
+          await change({ status: 'closed', closedAt: now }, { disposition: { [Op.ne]: null } })
+          await log('closed', { disposition: item.disposition })
+          break
+        }
+        if (item.source !== 'message') throw fieldError('disposition', 'validation.triage.disposition', 400, 'errors.dispositionRequired')
+        const answer = await itemAnswer(item.id, transaction)
+        if (!answer) throw fieldError('disposition', 'validation.triage.dispositionOrAnswer', 400, 'errors.answerOrDispositionRequired')
+        await change({ status: 'closed', closedAt: now })
+        await log('closed', { answeredBy: answer.messageId })
         break
+      }
     }
   })
   const item = await TriageItem.findByPk(found.id)
