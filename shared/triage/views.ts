@@ -64,4 +64,6 @@ export interface TriageDetailView extends TriageRowView {
   contact: PatientContactView
   caregivers: CaregiverContactView[]
   context: TriageContextView
+  /** For an item a message opened: the conversation it is in (its messages come from GET /api/patients/:id/messages). */
+  messageThreadId: number | null
 }

@@ -26,6 +26,13 @@ export function triageRow(item: TriageItem, now: Date): TriageRowView {
   }
 }
 
+/** The conversation a message's item belongs to: its source key is `message:<threadId>:<messageId>`. */
+export function messageThreadOf(item: Pick<TriageItem, 'source' | 'sourceKey'>): number | null {
+  if (item.source !== 'message') return null
+  const threadId = Number(/^message:(\d+):\d+$/.exec(item.sourceKey)?.[1])
+  return Number.isSafeInteger(threadId) && threadId > 0 ? threadId : null
+}
+
 /** Everything a nurse needs on the item page: the entry, the timeline and his context. */
 export async function triageDetail(item: TriageItem, now: Date): Promise<TriageDetailView> {
   const clock = await scheduleClock(now)
@@ -85,5 +92,6 @@ export async function triageDetail(item: TriageItem, now: Date): Promise<TriageD
       trend: trend.map(t => ({ id: t.id, submittedAt: t.submittedAt.toISOString(), level: t.level, hotFlushScore: t.hotFlushScore, worstPain: t.worstPain })),
       openItems: openItems.map(o => ({ id: o.id, reference: itemReference(o.id), level: o.level, status: o.status, source: o.source })),
     },
+    messageThreadId: messageThreadOf(item),
   }
 }
