@@ -2,7 +2,7 @@ import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
 import { url, waitForHydration } from '@nuxt/test-utils/e2e'
 import { Client } from '../support/client'
-import { linkIn } from '../support/mail-catcher'
+import { sentInvitationLinks } from '../support/circle'
 import { createPage, seriousAxeViolations, setupBrowser, signInAs } from '../support/browser'
 
 await setupBrowser()
@@ -10,19 +10,6 @@ await setupBrowser()
 // Browser tests share one server: this demo patient and the new caregiver are used by this file only.
 const PATIENT = 'howard@demo.tidewell.test'
 const HELPER = { name: 'Wilhelmina Tillinghast', email: 'wilhelmina@demo.tidewell.test', password: 'kettle on by the window' }
-
-/** The invitation links sent to one address, from the app's own mail catcher (read as an admin). */
-async function invitationLinks(email: string, count: number): Promise<string[]> {
-  const admin = await Client.signIn(url('/'), 'admin@demo.tidewell.test')
-  const deadline = Date.now() + 15_000
-  while (Date.now() < deadline) {
-    const { messages } = (await admin.get('/api/admin/mail')).body as { messages: { to: string, text: string }[] }
-    const found = messages.filter(m => m.to.includes(email))
-    if (found.length >= count) return found.map(m => linkIn(m.text))
-    await new Promise(r => setTimeout(r, 200))
-  }
-  throw new Error(`fewer than ${count} invitations for ${email}`)
-}
 
 async function goTo(page: Page, path: string) {
   await page.goto(url(path))
@@ -68,7 +55,7 @@ describe('the care circle', () => {
     await patient.getByRole('heading', { name: 'Invitations not yet accepted' }).waitFor()
 
     // She follows the link from the e-mail and chooses a password.
-    const link = new URL((await invitationLinks(HELPER.email, 1))[0]!)
+    const link = new URL((await sentInvitationLinks(url('/'), HELPER.email, 1))[0]!)
     expect(link.pathname).toBe('/circle/accept')
     const helper = await createPage(`${link.pathname}${link.search}`)
     await waitForHydration(helper, url(`${link.pathname}${link.search}`), 'hydration')
@@ -133,7 +120,7 @@ describe('the care circle', () => {
       expect(sent.status).toBe(201)
     }
     // The e-mails name nobody but her, so the page tells which man each link is from.
-    const [firstLink, secondLink] = await invitationLinks(theodora.email, 2)
+    const [firstLink, secondLink] = await sentInvitationLinks(url('/'), theodora.email, 2)
 
     // The first link makes her account.
     const first = new URL(firstLink!)

@@ -41,3 +41,16 @@ export async function patientIds(baseUrl: string): Promise<Record<string, number
   const roster = (await nurse.get('/api/patients')).body as { id: number, clinicNumber: string }[]
   return Object.fromEntries(roster.map(p => [p.clinicNumber, p.id]))
 }
+
+/** The invitation links sent to one address, from the app's own mail catcher (read as an admin): for browser tests, which share one server. */
+export async function sentInvitationLinks(baseUrl: string, email: string, count: number): Promise<string[]> {
+  const admin = await Client.signIn(baseUrl, 'admin@demo.tidewell.test')
+  const deadline = Date.now() + 15_000
+  while (Date.now() < deadline) {
+    const { messages } = (await admin.get('/api/admin/mail')).body as { messages: { to: string, text: string }[] }
+    const found = messages.filter(m => m.to.includes(email))
+    if (found.length >= count) return found.map(m => linkIn(m.text))
+    await new Promise(r => setTimeout(r, 200))
+  }
+  throw new Error(`fewer than ${count} invitations for ${email}`)
+}
