@@ -33,11 +33,12 @@ interface Person { email: string, pages: string[], firstLinks?: Record<string, s
 const PEOPLE: Record<string, Person> = {
   patient: {
     email: 'patient@demo.tidewell.test',
-    pages: ['/today', '/diary', '/diary/new', 'first:/diary:a[href^="/diary/"]:not([href="/diary/new"])', '/injections', '/labs', '/contact', '/circle', '/access-history'],
+    pages: ['/today', '/diary', '/diary/new', 'first:/diary:a[href^="/diary/"]:not([href="/diary/new"])', '/injections', '/labs', '/contact', '/circle', '/access-history', '/messages'],
   },
   'caregiver who may log': {
     email: 'caregiver@demo.tidewell.test',
-    pages: ['/today', '/diary', '/diary/new', '/injections', '/labs', '/contact'],
+    // Not allowed to message: /messages shows the plain notice.
+    pages: ['/today', '/diary', '/diary/new', '/injections', '/labs', '/contact', '/messages'],
   },
   'caregiver who may only view': {
     email: 'dana@demo.tidewell.test',
