@@ -168,6 +168,11 @@ describe('a conversation', () => {
     }
   })
 
+  it('the item names its conversation for the item page (messageThreadId, from its source key)', async () => {
+    const [item] = await messageItems()
+    expect((await nurse.get(`/api/triage/${item!.id}`)).body.messageThreadId).toBe(threadId)
+  })
+
   it('the same requestId again returns the first message, 200, and stores nothing more', async () => {
     const requestId = randomUUID()
     const first = await send(helper, { threadId, body: 'Also a little swollen', requestId })

@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto'
 import type { Page } from 'playwright-core'
+import { PDFDocument } from 'pdf-lib'
 import sharp from 'sharp'
 import { beforeAll, describe, expect, inject, it } from 'vitest'
 import { url, waitForHydration } from '@nuxt/test-utils/e2e'
@@ -27,6 +28,9 @@ const ANSWER = 'Thank you for the photo. Keep the area clean and dry; we will lo
 
 let patientId: number
 let patient: Client
+let helper: Client
+/** The nurse through the API, signed in once (a second-factor code is good for one sign-in only). */
+let nurse: Client
 let photo: Buffer
 
 async function goTo(page: Page, path: string) {
@@ -50,11 +54,13 @@ beforeAll(async () => {
   const base = inject('appUrl')
   patient = await Client.signIn(base, PATIENT.email)
   patientId = (await patient.get('/api/_auth/session')).body.user.patientId as number
+  nurse = await Client.signIn(base, NURSE.email)
   // The patient lets her message for him, in Spanish; she accepts from the e-mail's link.
   const invited = await patient.post(`/api/patients/${patientId}/circle`, { name: HELPER.name, email: HELPER.email, language: 'es', canLogDiary: false, canManageAppointments: false, canMessage: true, requestId: randomUUID() })
   expect(invited.status, JSON.stringify(invited.body)).toBe(201)
   const token = new URL((await sentInvitationLinks(base, HELPER.email, 1))[0]!).searchParams.get('token')
-  const accepted = await new Client(base).post(`/api/circle-invitations/${token}/accept`, { name: HELPER.name, password: HELPER.password })
+  helper = new Client(base)
+  const accepted = await helper.post(`/api/circle-invitations/${token}/accept`, { name: HELPER.name, password: HELPER.password })
   expect(accepted.status, JSON.stringify(accepted.body)).toBe(200)
   // A small real photo (a reddish patch), made here.
   photo = await sharp({ create: { width: 64, height: 48, channels: 3, background: { r: 196, g: 72, b: 64 } } }).png().toBuffer()
@@ -143,7 +149,6 @@ describe('messages', () => {
     await expect.poll(() => link.textContent(), { timeout: 10_000 }).toMatch(/^\s*Messages\s*$/)
     expect(await seriousAxeViolations(page)).toEqual([])
 
-    const nurse = await Client.signIn(inject('appUrl'), NURSE.email)
     const staffView = (await nurse.get(`/api/patients/${patientId}/messages`)).body.threads[0].messages as { body: string, readBy?: { name: string }[] }[]
     expect(staffView.find(m => m.body === ANSWER)?.readBy?.map(r => r.name)).toEqual([PATIENT.name])
     await page.close()
@@ -167,7 +172,6 @@ describe('messages', () => {
 
     const threads = await storedThreads()
     expect(threads[0]!.messages.map(m => m.body)).toEqual([BODY, ANSWER])
-    const nurse = await Client.signIn(inject('appUrl'), NURSE.email)
     const queue = (await nurse.get('/api/triage?pageSize=100')).body.items as { patientId: number, level: string, source: string }[]
     expect(queue.filter(item => item.patientId === patientId && item.level === 'emergency')).toHaveLength(1)
     await page.close()
@@ -193,6 +197,43 @@ describe('messages', () => {
     await page.getByRole('button', { name: 'Enviar mensaje' }).click()
     await page.getByRole('heading', { name: 'Cita de marzo' }).waitFor()
     await expect(page.evaluate(() => document.documentElement.scrollWidth)).resolves.toBeLessThanOrEqual(390)
+    await page.close()
+  })
+
+  it('on his staff page the nurse files a PDF from a message as a lab result, and marks the message entered in error', async () => {
+    // She sends an outside PSA report (a real one-page PDF) through the API, as the page would.
+    const document = await PDFDocument.create()
+    document.addPage()
+    const form = new FormData()
+    form.append('file', new Blob([new Uint8Array(await document.save())], { type: 'application/pdf' }), 'informe-psa.pdf')
+    const uploaded = await fetch(url(`/api/patients/${patientId}/attachments`), { method: 'POST', headers: { origin: new URL(url('/')).origin, cookie: helper.cookieHeader() }, body: form })
+    expect(uploaded.status).toBe(201)
+    const attachment = await uploaded.json() as { id: number }
+    const sent = await helper.post(`/api/patients/${patientId}/messages`, { subject: 'Informe de PSA', body: 'El análisis de otro laboratorio.', attachmentIds: [attachment.id], rightNow: [], requestId: randomUUID() })
+    expect(sent.status).toBe(201)
+
+    const page = await signInAs(NURSE.email)
+    await goTo(page, `/staff/patients/${patientId}`)
+    const messages = page.getByRole('region', { name: 'Messages' })
+    await messages.getByRole('button', { name: /Informe de PSA/ }).click()
+    await messages.getByRole('link', { name: /^informe-psa\.pdf \(PDF, [\d.]+ MB\): download$/ }).waitFor()
+    await messages.getByRole('button', { name: 'File as a lab result' }).click()
+    const filing = page.locator(`form[aria-labelledby="lab-file-${attachment.id}-entry-heading"]`)
+    await filing.getByLabel('Test', { exact: true }).selectOption('psa')
+    await filing.getByLabel('PSA (ng/mL)').fill('2.4')
+    await filing.getByRole('button', { name: 'File the result' }).click()
+    await messages.getByText('Filed as a lab result.').waitFor()
+    const labs = (await nurse.get(`/api/patients/${patientId}/labs`)).body.results as { kind: string, value: number }[]
+    expect(labs.filter(result => result.kind === 'psa').map(result => result.value)).toEqual([2.4])
+
+    await messages.getByRole('button', { name: 'Mark as entered in error' }).click()
+    await messages.getByLabel('Why it was entered in error').fill('Sent for the wrong patient')
+    await messages.getByRole('button', { name: 'Mark entered in error' }).click()
+    await messages.getByText(`Entered in error, marked by ${NURSE.name}`, { exact: false }).waitFor()
+    expect(await seriousAxeViolations(page)).toEqual([])
+    // Kept for staff, gone from the circle's view (a conversation left with none is not shown).
+    const circle = (await helper.get(`/api/patients/${patientId}/messages`)).body.threads as { subject: string }[]
+    expect(circle.map(thread => thread.subject)).not.toContain('Informe de PSA')
     await page.close()
   })
 })
