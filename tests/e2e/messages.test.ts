@@ -124,12 +124,19 @@ describe('messages', () => {
     await photoLoaded(page, 'Photo sent: sarpullido.jpg')
     expect(await seriousAxeViolations(page)).toEqual([])
 
+    // Not answered yet: closing needs an answer or an outcome.
+    await page.getByText('Closing needs an answer or an outcome.', { exact: false }).waitFor()
     await message.getByLabel('Your message').fill(ANSWER)
     await message.getByRole('button', { name: 'Send answer' }).click()
     await message.getByText(ANSWER).waitFor()
     await message.getByText(`${NURSE.name}, for the care team`).waitFor()
     // Nobody in the circle has read it yet: the read receipt says so.
     await message.locator('[data-read-by]').getByText('Not read yet by the patient or his caregivers.').waitFor()
+    // Answered: the item closes with the answer as its outcome, no disposition needed.
+    await page.getByText('The message has been answered: it closes with the answer as its outcome.').waitFor()
+    await page.getByRole('button', { name: 'Close item' }).click()
+    await page.getByText('This item is closed: the message was answered. You can still add a note.').waitFor()
+    await page.getByText('Closed with the answer sent').waitFor()
     await page.close()
   })
 
