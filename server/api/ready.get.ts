@@ -1,6 +1,5 @@
 import { statfs } from 'node:fs/promises'
 import { dirname, resolve } from 'node:path'
-import { QueryTypes } from 'sequelize'
 import { OutboxMessage } from '../db/models'
 
 /** How long the write probe may wait for its turn in the write line. */
@@ -20,18 +19,11 @@ function withinProbeTime<T>(work: Promise<T>): Promise<T> {
   return Promise.race([work, timeout]).finally(() => clearTimeout(timer))
 }
 
-/**
- * A real write, committed: in one transaction of the write line, read the database
- * header's user_version and write the same value back. A read-only file or folder, a
- * lost lock or a failing disk makes it fail; nothing in the data changes.
- */
+/** A real write, committed (probeWrite in server/utils/core/db.ts); nothing in the data changes. */
 async function database(): Promise<Check> {
   try {
     const sequelize = await whenSeeded()
-    await withinProbeTime(sequelize.transaction(async (transaction) => {
-      const [row] = await sequelize.query<{ user_version: number }>('PRAGMA user_version', { type: QueryTypes.SELECT, transaction })
-      await sequelize.query(`PRAGMA user_version = ${Math.trunc(Number(row?.user_version ?? 0))}`, { transaction })
-    }))
+    await withinProbeTime(sequelize.transaction(transaction => probeWrite(sequelize, transaction)))
     return { ok: true }
   }
   catch (error) {

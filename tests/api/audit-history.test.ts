@@ -20,7 +20,7 @@ interface Group { day: string, kind: 'read' | 'change' | 'refused', count: numbe
 beforeAll(async () => {
   app = await startApp()
   ids = await patientIds(app.url)
-  const users = await sql<{ id: number, email: string }>(app.dbPath, 'SELECT id, email FROM users')
+  const users = await sql<{ id: number, email: string }>(app, 'SELECT id, email FROM users')
   userIds = Object.fromEntries(users.map(u => [u.email.split('@')[0], u.id]))
 })
 afterAll(async () => {
@@ -28,7 +28,7 @@ afterAll(async () => {
 })
 
 const clinicToday = () => DateTime.now().setZone('America/Chicago').toISODate()!
-const lastId = async () => (await sql<{ id: number | null }>(app.dbPath, 'SELECT MAX(id) AS id FROM audit_events'))[0]!.id ?? 0
+const lastId = async () => (await sql<{ id: number | null }>(app, 'SELECT MAX(id) AS id FROM audit_events'))[0]!.id ?? 0
 const historyOf = async (patient: Client, patientId: number) => {
   const reply = await patient.get(`/api/patients/${patientId}/access-history`)
   expect(reply.status).toBe(200)
@@ -45,7 +45,7 @@ describe('the outcome is recorded after the work', () => {
       const reply = await nurse.post(`/api/patients/${howard}/labs`, { kind: 'psa', takenOn: clinicToday(), value: `not a number ${i}` })
       expect(reply.status).toBe(400)
     }
-    const lines = await sql<{ outcome: string, action: string, ip: string }>(app.dbPath, 'SELECT outcome, action, ip FROM audit_events WHERE id > ? AND patient_id = ?', [before, howard])
+    const lines = await sql<{ outcome: string, action: string, ip: string }>(app, 'SELECT outcome, action, ip FROM audit_events WHERE id > ? AND patient_id = ?', [before, howard])
     expect(lines).toHaveLength(20)
     expect(new Set(lines.map(l => `${l.action} ${l.outcome}`))).toEqual(new Set(['labs.record refused-invalid']))
 
@@ -56,7 +56,7 @@ describe('the outcome is recorded after the work', () => {
     expect(valid.status).toBe(201)
     nora = (await historyOf(patient, howard)).filter(g => g.actor.name === 'Nora Lindqvist')
     expect(nora.map(g => [g.kind, g.count])).toEqual([['change', 1], ['refused', 20]])
-    expect((await sql<{ outcome: string }>(app.dbPath, 'SELECT outcome FROM audit_events WHERE id > ? AND patient_id = ? ORDER BY id DESC LIMIT 1', [before, howard]))[0]!.outcome).toBe('done')
+    expect((await sql<{ outcome: string }>(app, 'SELECT outcome FROM audit_events WHERE id > ? AND patient_id = ? ORDER BY id DESC LIMIT 1', [before, howard]))[0]!.outcome).toBe('done')
   })
 
   it('a refusal by the access policy is refused-policy and is not on the patient\'s page', async () => {
@@ -64,7 +64,7 @@ describe('the outcome is recorded after the work', () => {
     const before = await lastId()
     const stranger = await Client.signIn(app.url, 'caregiver@demo.tidewell.test')
     expect((await stranger.get(`/api/patients/${bernard}`)).status).toBe(404)
-    expect(await sql(app.dbPath, 'SELECT outcome FROM audit_events WHERE id > ? AND patient_id = ?', [before, bernard])).toEqual([{ outcome: 'refused-policy' }])
+    expect(await sql(app, 'SELECT outcome FROM audit_events WHERE id > ? AND patient_id = ?', [before, bernard])).toEqual([{ outcome: 'refused-policy' }])
     const groups = await historyOf(await Client.signIn(app.url, 'bernard@demo.tidewell.test'), bernard)
     expect(groups.filter(g => g.actor.name === 'Marisol Marwood')).toEqual([])
   })
@@ -74,7 +74,7 @@ describe('no patient data without its line', () => {
   it('a read whose audit line cannot be written answers 503 without the data; a refused change is still refused', async () => {
     const desmond = ids['LPU-1009']!
     const nurse = await Client.signIn(app.url, 'nurse2@demo.tidewell.test')
-    await sql(app.dbPath, `CREATE TRIGGER refuse_audit BEFORE INSERT ON audit_events BEGIN SELECT RAISE(ABORT, 'refused by test'); END`)
+    await sql(app, `CREATE TRIGGER refuse_audit BEFORE INSERT ON audit_events BEGIN SELECT RAISE(ABORT, 'refused by test'); END`)
     try {
       const read = await nurse.get(`/api/patients/${desmond}`)
       expect(read.status).toBe(503)
@@ -82,7 +82,7 @@ describe('no patient data without its line', () => {
       expect(read.headers.get('retry-after')).toBe('1')
     }
     finally {
-      await sql(app.dbPath, 'DROP TRIGGER refuse_audit')
+      await sql(app, 'DROP TRIGGER refuse_audit')
     }
     expect((await nurse.get(`/api/patients/${desmond}`)).status).toBe(200)
   })
@@ -96,7 +96,7 @@ describe('the client address of a server-rendered page', () => {
     const page = await nurse.request('GET', `/staff/patients/${cyril}`, undefined, { 'x-forwarded-for': '203.0.113.9', 'accept': 'text/html' })
     expect(page.status).toBe(200)
     expect(String(page.body)).toContain('Cyril Hathersage')
-    const lines = await sql<{ resource: string, ip: string | null, outcome: string }>(app.dbPath, `SELECT resource, ip, outcome FROM audit_events WHERE id > ? AND patient_id = ? AND actor_user_id = ? AND resource LIKE 'GET /api/patients/%'`, [before, cyril, userIds.nurse2])
+    const lines = await sql<{ resource: string, ip: string | null, outcome: string }>(app, `SELECT resource, ip, outcome FROM audit_events WHERE id > ? AND patient_id = ? AND actor_user_id = ? AND resource LIKE 'GET /api/patients/%'`, [before, cyril, userIds.nurse2])
     expect(lines.length).toBeGreaterThan(0)
     for (const line of lines) expect(line).toMatchObject({ ip: expect.stringMatching(/127\.0\.0\.1/), outcome: 'done' })
   })
@@ -105,7 +105,7 @@ describe('the client address of a server-rendered page', () => {
 describe('list reads name the patients shown', () => {
   it('a queue read writes one line per patient on the page, the roster and the due list one per patient listed', async () => {
     const nurse = await Client.signIn(app.url, 'nurse2@demo.tidewell.test')
-    const linesSince = async (id: number, action: string) => (await sql<{ patient_id: number | null, ip: string }>(app.dbPath, 'SELECT patient_id, ip FROM audit_events WHERE id > ? AND action = ? AND actor_user_id = ?', [id, action, userIds.nurse2]))
+    const linesSince = async (id: number, action: string) => (await sql<{ patient_id: number | null, ip: string }>(app, 'SELECT patient_id, ip FROM audit_events WHERE id > ? AND action = ? AND actor_user_id = ?', [id, action, userIds.nurse2]))
 
     // A result that opens a queue item (the demo starts with an empty queue).
     const clinician = await Client.signIn(app.url, 'clinician@demo.tidewell.test')
@@ -130,7 +130,7 @@ describe('list reads name the patients shown', () => {
 
     // The patient sees it in his own words.
     const first = shown[0]!
-    const email = (await sql<{ email: string }>(app.dbPath, 'SELECT u.email FROM users u JOIN patients p ON p.user_id = u.id WHERE p.id = ?', [first]))[0]!.email
+    const email = (await sql<{ email: string }>(app, 'SELECT u.email FROM users u JOIN patients p ON p.user_id = u.id WHERE p.id = ?', [first]))[0]!.email
     const groups = await historyOf(await Client.signIn(app.url, email), first)
     expect(groups.find(g => g.actor.name === 'Tobias Mwangi' && g.kind === 'read')?.actions).toEqual(expect.arrayContaining(['triage-queue.read', 'roster.read']))
   })
@@ -151,7 +151,7 @@ describe('the access history groups repeats', () => {
     // Late yesterday evening in Chicago: already today in UTC for part of the year.
     const lateYesterday = DateTime.now().setZone('America/Chicago').minus({ days: 1 }).set({ hour: 23, minute: 30 }).toUTC()
     const stamp = lateYesterday.toFormat('yyyy-MM-dd HH:mm:ss.SSS') + ' +00:00'
-    await sql(app.dbPath, `INSERT INTO audit_events (actor_user_id, actor_role, patient_id, action, resource, outcome, ip, at) VALUES (?, 'clinician', ?, 'patient.read', 'GET /api/patients/x', 'done', '127.0.0.1', ?)`, [userIds.clinician, odell, stamp])
+    await sql(app, `INSERT INTO audit_events (actor_user_id, actor_role, patient_id, action, resource, outcome, ip, at) VALUES (?, 'clinician', ?, 'patient.read', 'GET /api/patients/x', 'done', '127.0.0.1', ?)`, [userIds.clinician, odell, stamp])
     const reply = await (await Client.signIn(app.url, 'odell@demo.tidewell.test')).get(`/api/patients/${odell}/access-history`)
     const ines = (reply.body.groups as Group[]).filter(g => g.actor.name === 'Ines Varga')
     expect(ines.map(g => [g.day, g.count])).toEqual([[clinicToday(), 5], [DateTime.now().setZone('America/Chicago').minus({ days: 1 }).toISODate(), 1]])

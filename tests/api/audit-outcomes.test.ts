@@ -33,14 +33,14 @@ describe('the local mail catcher', () => {
     const admin = await Client.signIn(app.url, 'admin@demo.tidewell.test')
     expect((await admin.get('/api/admin/mail')).body.enabled).toBe(true)
     await admin.get('/api/admin/mail')
-    const rows = await sql<{ actor_role: string, outcome: string }>(app.dbPath, `SELECT actor_role, outcome FROM audit_events WHERE action = 'mail-catcher.read'`)
+    const rows = await sql<{ actor_role: string, outcome: string }>(app, `SELECT actor_role, outcome FROM audit_events WHERE action = 'mail-catcher.read'`)
     expect(rows).toEqual([{ actor_role: 'admin', outcome: 'done' }, { actor_role: 'admin', outcome: 'done' }])
   })
 
   it('account-list reads are in the audit trail', async () => {
     const admin = await Client.signIn(app.url, 'admin@demo.tidewell.test')
     expect((await admin.get('/api/users')).status).toBe(200)
-    const rows = await sql<{ n: number }>(app.dbPath, `SELECT COUNT(*) AS n FROM audit_events WHERE action = 'users.read' AND actor_role = 'admin'`)
+    const rows = await sql<{ n: number }>(app, `SELECT COUNT(*) AS n FROM audit_events WHERE action = 'users.read' AND actor_role = 'admin'`)
     expect(rows[0]!.n).toBe(1)
   })
 

@@ -102,13 +102,13 @@ describe('npm run backup and npm run restore', () => {
     expect(restore.code, restore.out).toBe(0)
     restored = await startApp({ dataDir: fresh })
 
-    expect(await sql(restored.dbPath, 'PRAGMA integrity_check')).toEqual([{ integrity_check: 'ok' }])
+    expect(await sql(restored, 'PRAGMA integrity_check')).toEqual([{ integrity_check: 'ok' }])
     const kept = await entryIds(restored.dbPath)
     const missing = [...before].filter(id => !kept.has(id))
     expect(missing).toEqual([])
     // The restored server serves them: the patient reads his last acknowledged entry.
     const last = [...before].at(-1)!
-    const owner = (await sql<{ patient_id: number }>(restored.dbPath, 'SELECT patient_id FROM diary_entries WHERE id = ?', [last]))[0]!.patient_id
+    const owner = (await sql<{ patient_id: number }>(restored, 'SELECT patient_id FROM diary_entries WHERE id = ?', [last]))[0]!.patient_id
     const signedIn = await Client.signIn(restored.url, me.find(p => p.patientId === owner)!.email)
     const entry = await signedIn.get(`/api/patients/${owner}/diary/${last}`)
     expect(entry.status).toBe(200)
@@ -144,7 +144,7 @@ describe('npm run backup and npm run restore', () => {
     expect(aside).toHaveLength(1)
     // The replaced database holds everything the live one had, the later entry too.
     expect(await entryIds(join(app.dataDir, aside[0]!))).toEqual(live)
-    expect(await sql(app.dbPath, 'PRAGMA integrity_check')).toEqual([{ integrity_check: 'ok' }])
+    expect(await sql(app, 'PRAGMA integrity_check')).toEqual([{ integrity_check: 'ok' }])
     rmSync(app.dataDir, { recursive: true, force: true })
   })
 })

@@ -13,12 +13,12 @@ afterAll(() => app?.stop())
 const TABLES = ['users', 'patients', 'care_grants', 'injections', 'appointments', 'diary_entries', 'triage_items', 'triage_events', 'monitoring_plans', 'monitoring_items', 'message_threads', 'messages', 'message_reads']
 
 async function counts() {
-  return Object.fromEntries(await Promise.all(TABLES.map(async t => [t, (await sql<{ n: number }>(app.dbPath, `SELECT COUNT(*) AS n FROM ${t}`))[0]!.n])))
+  return Object.fromEntries(await Promise.all(TABLES.map(async t => [t, (await sql<{ n: number }>(app, `SELECT COUNT(*) AS n FROM ${t}`))[0]!.n])))
 }
 
 describe('the demo clinic', () => {
   it('has the people the README names: 1 admin, 2 nurses, 1 clinician, 12 patients, 2 caregivers', async () => {
-    const roles = await sql<{ role: string, n: number }>(app.dbPath, 'SELECT role, COUNT(*) AS n FROM users GROUP BY role ORDER BY role')
+    const roles = await sql<{ role: string, n: number }>(app, 'SELECT role, COUNT(*) AS n FROM users GROUP BY role ORDER BY role')
     expect(Object.fromEntries(roles.map(r => [r.role, r.n]))).toEqual({ admin: 1, caregiver: 2, clinician: 1, nurse: 2, patient: 12 })
   })
 
@@ -44,7 +44,7 @@ describe('the demo clinic', () => {
   })
 
   it('gives every patient and caregiver a phone in the fictional 555-0100 to 555-0199 range, and three patients a risk profile', async () => {
-    const patients = await sql<{ phones: string, best_times_to_call: string, risk_profile: string | null }>(app.dbPath, 'SELECT phones, best_times_to_call, risk_profile FROM patients')
+    const patients = await sql<{ phones: string, best_times_to_call: string, risk_profile: string | null }>(app, 'SELECT phones, best_times_to_call, risk_profile FROM patients')
     expect(patients).toHaveLength(12)
     for (const patient of patients) {
       const phones = JSON.parse(patient.phones) as { number: string }[]
@@ -53,16 +53,16 @@ describe('the demo clinic', () => {
       expect(patient.best_times_to_call).not.toBe('')
     }
     expect(patients.filter(p => p.risk_profile && Object.values(JSON.parse(p.risk_profile)).includes(true))).toHaveLength(3)
-    const caregivers = await sql<{ phone: string | null }>(app.dbPath, `SELECT phone FROM users WHERE role = 'caregiver'`)
+    const caregivers = await sql<{ phone: string | null }>(app, `SELECT phone FROM users WHERE role = 'caregiver'`)
     for (const caregiver of caregivers) expect(caregiver.phone).toMatch(/^\(\d{3}\) 555-01\d{2}$/)
   })
 
   it('gives every patient a monitoring plan owned by the clinician; ECG and electrolytes only for the man with heart risk factors', async () => {
-    const plans = await sql<{ clinic_number: string, owner: string, items: number }>(app.dbPath, `SELECT p.clinic_number, u.email AS owner, (SELECT COUNT(*) FROM monitoring_items i WHERE i.plan_id = m.id) AS items
+    const plans = await sql<{ clinic_number: string, owner: string, items: number }>(app, `SELECT p.clinic_number, u.email AS owner, (SELECT COUNT(*) FROM monitoring_items i WHERE i.plan_id = m.id) AS items
       FROM monitoring_plans m JOIN patients p ON p.id = m.patient_id JOIN users u ON u.id = m.owner_user_id`)
     expect(plans).toHaveLength(12)
     for (const plan of plans) expect(plan).toMatchObject({ owner: 'clinician@demo.tidewell.test', items: 10 })
-    const ecg = await sql<{ clinic_number: string }>(app.dbPath, `SELECT p.clinic_number FROM monitoring_items i JOIN patients p ON p.id = i.patient_id WHERE i.kind = 'ecg' AND i.active = 1`)
+    const ecg = await sql<{ clinic_number: string }>(app, `SELECT p.clinic_number FROM monitoring_items i JOIN patients p ON p.id = i.patient_id WHERE i.kind = 'ecg' AND i.active = 1`)
     expect(ecg.map(row => row.clinic_number)).toEqual(['LPU-1010'])
     const nurse = await Client.signIn(app.url, 'nurse@demo.tidewell.test')
     const due = (await nurse.get('/api/monitoring/due')).body.rows as { state: string }[]
@@ -86,8 +86,8 @@ describe('the demo clinic', () => {
     expect((await marisol.get('/api/me/unread')).body.unread).toBe(0)
     const kenji = await Client.signIn(app.url, 'kenji@demo.tidewell.test')
     expect((await kenji.get('/api/me/unread')).body.unread).toBe(1)
-    expect((await sql<{ n: number }>(app.dbPath, 'SELECT COUNT(*) AS n FROM messages'))[0]!.n).toBe(8)
-    expect((await sql<{ n: number }>(app.dbPath, 'SELECT COUNT(*) AS n FROM triage_items WHERE source = \'message\''))[0]!.n).toBe(0)
+    expect((await sql<{ n: number }>(app, 'SELECT COUNT(*) AS n FROM messages'))[0]!.n).toBe(8)
+    expect((await sql<{ n: number }>(app, 'SELECT COUNT(*) AS n FROM triage_items WHERE source = \'message\''))[0]!.n).toBe(0)
   })
 
   it('seeding again on the same database changes nothing', async () => {

@@ -30,10 +30,10 @@ afterAll(async () => {
   await mail?.stop()
 })
 
-const entriesOf = (patientId: number) => sql<{ id: number, complete: number, level: string, draft_id: string | null }>(app.dbPath, 'SELECT id, complete, level, draft_id FROM diary_entries WHERE patient_id = ?', [patientId])
-const itemsOf = (patientId: number) => sql<{ id: number, level: string, diary_entry_id: number, reasons: string, status: string }>(app.dbPath, 'SELECT id, level, diary_entry_id, reasons, status FROM triage_items WHERE patient_id = ?', [patientId])
-const alertsFor = (itemId: number) => sql<{ to_address: string }>(app.dbPath, `SELECT dedupe_key FROM outbox_messages WHERE dedupe_key LIKE ?`, [`triageAlert:${itemId}:%`])
-const eventsOf = (itemId: number) => sql<{ type: string }>(app.dbPath, 'SELECT type FROM triage_events WHERE item_id = ? ORDER BY id', [itemId])
+const entriesOf = (patientId: number) => sql<{ id: number, complete: number, level: string, draft_id: string | null }>(app, 'SELECT id, complete, level, draft_id FROM diary_entries WHERE patient_id = ?', [patientId])
+const itemsOf = (patientId: number) => sql<{ id: number, level: string, diary_entry_id: number, reasons: string, status: string }>(app, 'SELECT id, level, diary_entry_id, reasons, status FROM triage_items WHERE patient_id = ?', [patientId])
+const alertsFor = (itemId: number) => sql<{ to_address: string }>(app, `SELECT dedupe_key FROM outbox_messages WHERE dedupe_key LIKE ?`, [`triageAlert:${itemId}:%`])
+const eventsOf = (itemId: number) => sql<{ type: string }>(app, 'SELECT type FROM triage_events WHERE item_id = ? ORDER BY id', [itemId])
 
 describe('POST /api/patients/:id/diary/right-now', () => {
   it('a yes sent alone opens an incomplete emergency entry and its item, and the alert reaches the nurses on duty', async () => {

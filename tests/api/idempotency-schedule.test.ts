@@ -48,7 +48,7 @@ const plusDays = (date: string, days: number) => new Date(Date.parse(`${date}T00
 const wallClock = (instant: Date) => new Intl.DateTimeFormat('en-GB', { timeZone: CLINIC_ZONE, hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }).format(instant)
 const localDay = (instant: Date) => new Intl.DateTimeFormat('en-CA', { timeZone: CLINIC_ZONE }).format(instant)
 
-const outboxTo = (address: string, subject: string) => sql<{ id: number }>(app.dbPath, 'SELECT id FROM outbox_messages WHERE to_address = ? AND subject = ?', [address, subject])
+const outboxTo = (address: string, subject: string) => sql<{ id: number }>(app, 'SELECT id FROM outbox_messages WHERE to_address = ? AND subject = ?', [address, subject])
 const statuses = (replies: Reply[]) => replies.map(r => r.status).sort()
 
 let flushes = 0
@@ -86,7 +86,7 @@ describe('invitations with a requestId', () => {
     expect(retry.status).toBe(200)
     expect(retry.body).toEqual(together.find(r => r.status === 201)!.body)
 
-    const stored = await sql<{ id: number, status: string }>(app.dbPath, 'SELECT id, status FROM circle_invitations WHERE email = ?', ['wren@demo.tidewell.test'])
+    const stored = await sql<{ id: number, status: string }>(app, 'SELECT id, status FROM circle_invitations WHERE email = ?', ['wren@demo.tidewell.test'])
     expect(stored).toEqual([{ id: retry.body.id, status: 'pending' }])
     expect(await outboxTo('wren@demo.tidewell.test', en.mail.circleInvite.subject)).toHaveLength(1)
     await flushMail()
@@ -101,7 +101,7 @@ describe('invitations with a requestId', () => {
     expect(again.status).toBe(201)
     const legacy = await elias.post(`/api/patients/${patientId}/circle`, body)
     expect(legacy.status).toBe(201)
-    const stored = await sql<{ id: number, status: string }>(app.dbPath, 'SELECT id, status FROM circle_invitations WHERE email = ? ORDER BY id', ['wren@demo.tidewell.test'])
+    const stored = await sql<{ id: number, status: string }>(app, 'SELECT id, status FROM circle_invitations WHERE email = ? ORDER BY id', ['wren@demo.tidewell.test'])
     expect(stored.map(s => s.status)).toEqual(['cancelled', 'cancelled', 'pending'])
     expect(stored.at(-1)!.id).toBe(legacy.body.id)
   })
@@ -140,9 +140,9 @@ describe('requests for another time with a requestId', () => {
     expect(together[1]!.body.changeRequest.id).toBe(requestId)
     expect(together[0]!.body).toMatchObject({ status: 'change-requested', openRequest: { id: requestId, note: 'Afternoons are easier.' }, changeRequest: { id: requestId, status: 'open' } })
 
-    const stored = await sql<{ id: number, status: string }>(app.dbPath, 'SELECT id, status FROM appointment_change_requests WHERE appointment_id = ?', [appointmentId])
+    const stored = await sql<{ id: number, status: string }>(app, 'SELECT id, status FROM appointment_change_requests WHERE appointment_id = ?', [appointmentId])
     expect(stored).toEqual([{ id: requestId, status: 'open' }])
-    const asked = await sql<{ to_address: string }>(app.dbPath, 'SELECT to_address FROM outbox_messages WHERE dedupe_key LIKE ?', ['change-asked:%'])
+    const asked = await sql<{ to_address: string }>(app, 'SELECT to_address FROM outbox_messages WHERE dedupe_key LIKE ?', ['change-asked:%'])
     expect(asked.map(a => a.to_address).sort()).toEqual(['nurse2@demo.tidewell.test', 'nurse@demo.tidewell.test'])
     await flushMail()
     for (const address of ['nurse@demo.tidewell.test', 'nurse2@demo.tidewell.test']) {
@@ -155,7 +155,7 @@ describe('requests for another time with a requestId', () => {
     expect(late.status).toBe(200)
     expect(late.body.changeRequest).toEqual({ id: requestId, status: 'answered' })
     expect(late.body.openRequest).toBeNull()
-    expect(await sql(app.dbPath, 'SELECT id FROM appointment_change_requests WHERE appointment_id = ?', [appointmentId])).toHaveLength(1)
+    expect(await sql(app, 'SELECT id FROM appointment_change_requests WHERE appointment_id = ?', [appointmentId])).toHaveLength(1)
   })
 
   it('two different requests at once leave one open request, the later one', async () => {
@@ -165,7 +165,7 @@ describe('requests for another time with a requestId', () => {
     const appointmentId = schedule.nextAppointment.id
     const replies = await Promise.all([5, 6].map(days => bernard.post(`/api/appointments/${appointmentId}/change-request`, { firstChoice: plusDays(schedule.today, days), requestId: randomUUID() })))
     expect(statuses(replies)).toEqual([201, 201])
-    const open = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM appointment_change_requests WHERE appointment_id = ? AND status = \'open\'', [appointmentId])
+    const open = await sql<{ id: number }>(app, 'SELECT id FROM appointment_change_requests WHERE appointment_id = ? AND status = \'open\'', [appointmentId])
     expect(open).toHaveLength(1)
     expect(open[0]!.id).toBe(Math.max(...replies.map(r => r.body.changeRequest.id)))
   })
@@ -191,10 +191,10 @@ describe('two nurses answer one request at the same moment', () => {
 
     const record = (await nurse.get(`/api/patients/${patientId}/schedule`)).body.nextAppointment
     expect(record).toMatchObject({ id: schedule.nextAppointment.id, localDate: day, localTime: winner.time, place: winner.place, status: 'booked', lastAnswer: { note: winner.note } })
-    const rows = await sql<{ status: string, answer_note: string }>(app.dbPath, 'SELECT status, answer_note FROM appointment_change_requests WHERE id = ?', [request.id])
+    const rows = await sql<{ status: string, answer_note: string }>(app, 'SELECT status, answer_note FROM appointment_change_requests WHERE id = ?', [request.id])
     expect(rows).toEqual([{ status: 'answered', answer_note: winner.note }])
     // The calendar SEQUENCE counts moves: moved once, not twice.
-    const sequence = await sql<{ sequence: number }>(app.dbPath, 'SELECT sequence FROM appointments WHERE id = ?', [record.id])
+    const sequence = await sql<{ sequence: number }>(app, 'SELECT sequence FROM appointments WHERE id = ?', [record.id])
     expect(sequence).toEqual([{ sequence: 1 }])
 
     // Mateo reads Spanish (demo clinic); one e-mail, and it says the stored time and room.
@@ -267,7 +267,7 @@ describe('two confirmations at the same moment', () => {
     expect(confirmed!.status).toBe(200)
     expect(asked!.status).toBe(201)
     const stored = (await nurse.get(`/api/patients/${patientId}/schedule`)).body.nextAppointment
-    const open = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM appointment_change_requests WHERE appointment_id = ? AND status = \'open\'', [appointmentId])
+    const open = await sql<{ id: number }>(app, 'SELECT id FROM appointment_change_requests WHERE appointment_id = ? AND status = \'open\'', [appointmentId])
     // Either the request came last (it stands, the appointment waits for an answer) or the
     // confirmation did (it withdrew the request): never a confirmed appointment with an open request.
     if (stored.status === 'confirmed') expect(open).toHaveLength(0)
@@ -297,9 +297,9 @@ describe('rebooking while a nurse answers the request', () => {
 
     const next = (await ramon.get(`/api/patients/${patientId}/schedule`)).body.nextAppointment
     expect(next).toMatchObject({ id: booking!.body.id, localDate: bookOn, localTime: '15:00', place: 'Injection room 3', status: 'booked', openRequest: null })
-    const open = await sql<{ id: number, status: string }>(app.dbPath, 'SELECT id, status FROM appointments WHERE patient_id = ? AND status IN (\'booked\', \'confirmed\', \'change-requested\')', [patientId])
+    const open = await sql<{ id: number, status: string }>(app, 'SELECT id, status FROM appointments WHERE patient_id = ? AND status IN (\'booked\', \'confirmed\', \'change-requested\')', [patientId])
     expect(open).toEqual([{ id: booking!.body.id, status: 'booked' }])
-    const request = await sql<{ status: string }>(app.dbPath, 'SELECT status FROM appointment_change_requests WHERE id = ?', [requestId])
+    const request = await sql<{ status: string }>(app, 'SELECT status FROM appointment_change_requests WHERE id = ?', [requestId])
     expect(request).toEqual([{ status: answer!.status === 200 ? 'answered' : 'withdrawn' }])
 
     // Ramón reads Spanish. A "new time" e-mail only when the answer won; the booking e-mail always, last, with the stored appointment.
@@ -330,7 +330,7 @@ describe('two nurses book at the same moment', () => {
     expect(replies.find(r => r.status === 409)!.body.message).toBe('errors.schedule.appointmentChanged')
     expect(en.errors.schedule.appointmentChanged).toMatch(/changed this appointment/)
     const winner = bookings[replies.findIndex(r => r.status === 201)]!.body
-    const open = await sql<{ place: string }>(app.dbPath, 'SELECT place FROM appointments WHERE patient_id = ? AND status IN (\'booked\', \'confirmed\', \'change-requested\')', [patientId])
+    const open = await sql<{ place: string }>(app, 'SELECT place FROM appointments WHERE patient_id = ? AND status IN (\'booked\', \'confirmed\', \'change-requested\')', [patientId])
     expect(open).toEqual([{ place: winner.place }])
     const address = 'kenji@demo.tidewell.test'
     await flushMail()
@@ -349,15 +349,15 @@ describe('the diary and the right-now send stay idempotent', () => {
     const patientId = ids['LPU-1009']!
     const desmond = await Client.signIn(app.url, 'desmond@demo.tidewell.test')
     const draftId = randomUUID()
-    const before = await sql(app.dbPath, 'SELECT id FROM diary_entries WHERE patient_id = ?', [patientId])
+    const before = await sql(app, 'SELECT id FROM diary_entries WHERE patient_id = ?', [patientId])
     const right = await Promise.all([1, 2].map(() => desmond.post(`/api/patients/${patientId}/diary/right-now`, { draftId, items: ['chestPain'] })))
     expect(statuses(right)).toEqual([200, 201])
     const body = { ...diaryEntry({ pain: { worst: 2, locations: ['back'] } }), draftId }
     const replies = await Promise.all([1, 2, 3].map(() => desmond.post(`/api/patients/${patientId}/diary`, body)))
     expect(statuses(replies)).toEqual([200, 200, 200])
     expect(new Set([...right, ...replies].map(r => r.body.id)).size).toBe(1)
-    const after = await sql(app.dbPath, 'SELECT id FROM diary_entries WHERE patient_id = ?', [patientId])
+    const after = await sql(app, 'SELECT id FROM diary_entries WHERE patient_id = ?', [patientId])
     expect(after.length - before.length).toBe(1)
-    expect(await sql(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [right[0]!.body.id])).toHaveLength(1)
+    expect(await sql(app, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [right[0]!.body.id])).toHaveLength(1)
   })
 })

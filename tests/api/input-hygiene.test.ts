@@ -35,7 +35,7 @@ afterAll(async () => {
 })
 
 const count = async (table: string, where = '1 = 1', params: unknown[] = []) =>
-  (await sql<{ n: number }>(app.dbPath, `SELECT COUNT(*) AS n FROM ${table} WHERE ${where}`, params))[0]!.n
+  (await sql<{ n: number }>(app, `SELECT COUNT(*) AS n FROM ${table} WHERE ${where}`, params))[0]!.n
 
 describe('hidden and control characters in text', () => {
   it('a NUL byte in a regimen name answers 400 with the field message, not 500, and stores nothing', async () => {

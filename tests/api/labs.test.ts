@@ -24,7 +24,7 @@ afterAll(async () => {
   await mail?.stop()
 })
 
-const count = async (table: string) => (await sql<{ n: number }>(app.dbPath, `SELECT COUNT(*) AS n FROM ${table}`))[0]!.n
+const count = async (table: string) => (await sql<{ n: number }>(app, `SELECT COUNT(*) AS n FROM ${table}`))[0]!.n
 
 describe('entering a result', () => {
   it('a nurse records a PSA; it comes back with its interpretation and stays at level none', async () => {
@@ -33,7 +33,7 @@ describe('entering a result', () => {
     expect(reply.body).toMatchObject({ kind: 'psa', value: 0.4, unit: 'ng/mL', note: 'Routine check', enteredBy: 'Nora Lindqvist', level: 'none', reasons: [] })
     // His only value is his nadir; the doubling time is fitted over the values after it (PCWG3, Scher 2016): none yet.
     expect(reply.body.interpretation).toMatchObject({ kind: 'psa', valuesUsed: 0, doubling: { status: 'too-few-values' } })
-    expect(await sql(app.dbPath, 'SELECT id FROM triage_items WHERE source_key = ?', [`lab:${reply.body.id}`])).toHaveLength(0)
+    expect(await sql(app, 'SELECT id FROM triage_items WHERE source_key = ?', [`lab:${reply.body.id}`])).toHaveLength(0)
   })
 
   it('a patient cannot record one, even his own (403)', async () => {
@@ -74,7 +74,7 @@ describe('entering a result', () => {
     expect(reply.body.interpretation.nmolPerL).toBeCloseTo(2.7736, 3)
 
     const [item] = await sql<{ id: number, level: string, source: string, status: string, respond_by: string, created_at: string }>(
-      app.dbPath, 'SELECT id, level, source, status, respond_by, created_at FROM triage_items WHERE source_key = ?', [`lab:${reply.body.id}`])
+      app, 'SELECT id, level, source, status, respond_by, created_at FROM triage_items WHERE source_key = ?', [`lab:${reply.body.id}`])
     expect(item).toMatchObject({ level: 'urgent', source: 'lab', status: 'new' })
     // Urgent target: within 4 hours (clinic default).
     expect(new Date(item!.respond_by).getTime() - new Date(item!.created_at).getTime()).toBeGreaterThan(4 * 3600_000 - 5_000)
@@ -93,7 +93,7 @@ describe('entering a result', () => {
   it('when the queue item cannot be written, the result is not stored either', async () => {
     const results = await count('lab_results')
     const items = await count('triage_items')
-    await sql(app.dbPath, `CREATE TRIGGER refuse_items BEFORE INSERT ON triage_items BEGIN SELECT RAISE(ABORT, 'refused by test'); END`)
+    await sql(app, `CREATE TRIGGER refuse_items BEFORE INSERT ON triage_items BEGIN SELECT RAISE(ABORT, 'refused by test'); END`)
     try {
       const failed = await nurse.post(`/api/patients/${ids['LPU-1002']}/labs`, { kind: 'qtc', takenOn: today, value: 520, heartRate: 60 })
       expect(failed.status).toBe(500)
@@ -101,14 +101,14 @@ describe('entering a result', () => {
       expect(await count('triage_items')).toBe(items)
     }
     finally {
-      await sql(app.dbPath, 'DROP TRIGGER refuse_items')
+      await sql(app, 'DROP TRIGGER refuse_items')
     }
   })
 
   it('an HbA1c of 6.8 % opens a routine item with the routine target', async () => {
     const reply = await nurse.post(`/api/patients/${ids['LPU-1009']}/labs`, { kind: 'hba1c', takenOn: today, value: 6.8 })
     expect(reply.body).toMatchObject({ level: 'routine', reasons: [{ rule: 'a1c-diabetes-range' }] })
-    const [item] = await sql<{ level: string, respond_by: string }>(app.dbPath, 'SELECT level, respond_by FROM triage_items WHERE source_key = ?', [`lab:${reply.body.id}`])
+    const [item] = await sql<{ level: string, respond_by: string }>(app, 'SELECT level, respond_by FROM triage_items WHERE source_key = ?', [`lab:${reply.body.id}`])
     expect(item!.level).toBe('routine')
     // Three working days: at least three and at most five calendar days later.
     const days = (new Date(item!.respond_by).getTime() - Date.now()) / 86_400_000

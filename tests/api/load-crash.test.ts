@@ -53,12 +53,12 @@ describe('kill -9 during 50-way writes', () => {
     expect(outcomes.every(o => o.status === 201 || o.status === 0), JSON.stringify(outcomes.map(o => o.status))).toBe(true)
 
     restarted = await startApp({ dataDir: app.dataDir })
-    const [check] = await sql<{ integrity_check: string }>(restarted.dbPath, 'PRAGMA integrity_check')
+    const [check] = await sql<{ integrity_check: string }>(restarted, 'PRAGMA integrity_check')
     expect(check!.integrity_check).toBe('ok')
 
     const ids = patients.map(p => p.patientId)
-    const stored = await sql<{ id: number, patientId: number, items: number, events: number }>(restarted.dbPath,
-      `SELECT d.id AS id, d.patient_id AS patientId,
+    const stored = await sql<{ id: number, patientId: number, items: number, events: number }>(restarted,
+      `SELECT d.id AS id, d.patient_id AS "patientId",
          (SELECT COUNT(*) FROM triage_items t WHERE t.diary_entry_id = d.id) AS items,
          (SELECT COUNT(*) FROM triage_events e JOIN triage_items t ON t.id = e.item_id WHERE t.diary_entry_id = d.id) AS events
        FROM diary_entries d WHERE d.patient_id IN (${ids.map(() => '?').join(',')})`, ids)
@@ -69,7 +69,7 @@ describe('kill -9 during 50-way writes', () => {
     expect(new Set(stored.map(e => e.patientId)).size).toBe(stored.length)
     expect(stored.filter(e => e.items !== 1)).toEqual([])
     expect(stored.filter(e => e.events < 1)).toEqual([])
-    const orphans = await sql<{ n: number }>(restarted.dbPath, 'SELECT COUNT(*) AS n FROM triage_items t LEFT JOIN diary_entries d ON d.id = t.diary_entry_id WHERE t.diary_entry_id IS NOT NULL AND d.id IS NULL')
+    const orphans = await sql<{ n: number }>(restarted, 'SELECT COUNT(*) AS n FROM triage_items t LEFT JOIN diary_entries d ON d.id = t.diary_entry_id WHERE t.diary_entry_id IS NOT NULL AND d.id IS NULL')
     expect(orphans[0]!.n).toBe(0)
   }, 180_000)
 })

@@ -34,11 +34,11 @@ beforeAll(async () => {
   clinician = await Client.signIn(app.url, 'clinician@demo.tidewell.test')
   admin = await Client.signIn(app.url, 'admin@demo.tidewell.test')
   for (const regimen of (await nurse.get('/api/regimens')).body as { id: number, name: string }[]) regimenIds[regimen.name] = regimen.id
-  clinicianId = (await sql<{ id: number }>(app.dbPath, `SELECT id FROM users WHERE email = 'clinician@demo.tidewell.test'`))[0]!.id
+  clinicianId = (await sql<{ id: number }>(app, `SELECT id FROM users WHERE email = 'clinician@demo.tidewell.test'`))[0]!.id
   // A man new to the clinic (invented), who reads Spanish: on the 1-month depot from 2026-01-05.
   const created = await admin.post('/api/users', { email: 'teodoro@demo.tidewell.test', name: 'Teodoro Alcañiz Brun', role: 'patient', language: 'es', patient: { clinicNumber: 'LPU-3001', dateOfBirth: '1950-07-07' } })
   expect(created.status, JSON.stringify(created.body)).toBe(201)
-  patientId = (await sql<{ id: number }>(app.dbPath, `SELECT id FROM patients WHERE clinic_number = 'LPU-3001'`))[0]!.id
+  patientId = (await sql<{ id: number }>(app, `SELECT id FROM patients WHERE clinic_number = 'LPU-3001'`))[0]!.id
   expect((await nurse.put(`/api/patients/${patientId}/regimen`, { regimenId: regimenIds['1-month depot'], startsOn: '2026-01-05' })).status).toBe(200)
   expect((await nurse.post(`/api/patients/${patientId}/injections`, injection('2026-01-05', regimenIds['1-month depot']!))).status).toBe(201)
   today = (await nurse.get(`/api/patients/${patientId}/labs`)).body.today
@@ -56,7 +56,7 @@ describe('making the plan from the clinic defaults', () => {
   })
 
   it('the owner must be an active clinician', async () => {
-    const nurseId = (await sql<{ id: number }>(app.dbPath, `SELECT id FROM users WHERE email = 'nurse@demo.tidewell.test'`))[0]!.id
+    const nurseId = (await sql<{ id: number }>(app, `SELECT id FROM users WHERE email = 'nurse@demo.tidewell.test'`))[0]!.id
     const reply = await clinician.post(`/api/patients/${patientId}/monitoring/defaults`, { ownerUserId: nurseId })
     expect(reply.status).toBe(400)
     expect(reply.body.data.fieldErrors.ownerUserId).toEqual(['validation.monitoring.ownerRequired'])
@@ -92,7 +92,7 @@ describe('a result fulfils its check', () => {
     // 80 ng/dL on therapy (more than 28 days after his first injection) is not castrate (Oefelein 2000).
     const reply = await nurse.post(`/api/patients/${patientId}/labs`, { kind: 'testosterone', takenOn: '2026-04-01', unit: 'ng/dL', value: 80 })
     expect(reply.body.level).toBe('urgent')
-    expect(await sql(app.dbPath, 'SELECT id FROM triage_items WHERE source_key = ?', [`lab:${reply.body.id}`])).toHaveLength(1)
+    expect(await sql(app, 'SELECT id FROM triage_items WHERE source_key = ?', [`lab:${reply.body.id}`])).toHaveLength(1)
     // Done 2026-04-01, every 168 days: 29 to Apr 30, 31 May (60), 30 Jun (90), 31 Jul (121), 31 Aug (152), 16 into Sept (168).
     expect(item(await plan(), 'testosterone')).toMatchObject({ lastDoneOn: '2026-04-01', dueOn: '2026-09-16', lastResult: { level: 'urgent' } })
   })
@@ -152,19 +152,19 @@ describe('who reads what is due', () => {
     const his = reply.body.rows.filter((row: { patientId: number }) => row.patientId === patientId)
     expect(his.find((row: { kind: string }) => row.kind === 'psa')).toMatchObject({ dueOn: '2026-07-20', state: 'overdue', clinicNumber: 'LPU-3001', lastDoneOn: '2026-03-30' })
     expect(his.find((row: { kind: string }) => row.kind === 'bone-density')).toBeUndefined()
-    const lines = await sql<{ patient_id: number }>(app.dbPath, `SELECT patient_id FROM audit_events WHERE action = 'monitoring-due.read'`)
+    const lines = await sql<{ patient_id: number }>(app, `SELECT patient_id FROM audit_events WHERE action = 'monitoring-due.read'`)
     expect(lines.map(l => l.patient_id)).toContain(patientId)
     expect((await admin.get('/api/monitoring/due')).status).toBe(403)
   })
 
   it('reading his plan is in the audit trail', async () => {
-    const lines = await sql(app.dbPath, `SELECT id FROM audit_events WHERE action = 'monitoring.read' AND patient_id = ? AND outcome = 'done'`, [patientId])
+    const lines = await sql(app, `SELECT id FROM audit_events WHERE action = 'monitoring.read' AND patient_id = ? AND outcome = 'done'`, [patientId])
     expect(lines.length).toBeGreaterThan(0)
   })
 
   it('a demo patient reads his own checks in plain words, with no values, intervals or notes', async () => {
     const elias = await Client.signIn(app.url, 'patient@demo.tidewell.test')
-    const id = (await sql<{ id: number }>(app.dbPath, `SELECT id FROM patients WHERE clinic_number = 'LPU-1001'`))[0]!.id
+    const id = (await sql<{ id: number }>(app, `SELECT id FROM patients WHERE clinic_number = 'LPU-1001'`))[0]!.id
     const reply = await elias.get(`/api/patients/${id}/monitoring/due`)
     expect(reply.status).toBe(200)
     expect(reply.body.items.length).toBeGreaterThan(0)

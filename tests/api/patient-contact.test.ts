@@ -38,7 +38,7 @@ describe('GET|PUT /api/patients/:id/risk-profile', () => {
     expect((await clinician.get(`/api/patients/${id}/risk-profile`)).body.riskProfile.spinalMetastases).toBe(true)
     expect((await clinician.put(`/api/patients/${id}/risk-profile`, { ...NO_RISKS, seizures: true })).status).toBe(200)
     expect((await nurse.get(`/api/patients/${id}/risk-profile`)).body.riskProfile).toEqual({ ...NO_RISKS, seizures: true })
-    const audit = await sql<{ action: string, outcome: string }>(app.dbPath, `SELECT action, outcome FROM audit_events WHERE patient_id = ? AND action = 'risk-profile.manage'`, [id])
+    const audit = await sql<{ action: string, outcome: string }>(app, `SELECT action, outcome FROM audit_events WHERE patient_id = ? AND action = 'risk-profile.manage'`, [id])
     expect(audit.length).toBe(5) // three reads, two changes
     expect(audit.every(a => a.outcome === 'done')).toBe(true)
   })
@@ -79,7 +79,7 @@ describe('GET|PUT /api/patients/:id/risk-profile', () => {
     expect(after.body.reasons.map((r: { rule: string }) => r.rule)).toContain('fever-during-chemotherapy')
     // The entry stored before keeps the triage it got.
     expect((await patient.get(`/api/patients/${id}/diary/${before.body.id}`)).body.level).toBe(before.body.level)
-    const [item] = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [after.body.id])
+    const [item] = await sql<{ id: number }>(app, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [after.body.id])
     const detail = (await nurse.get(`/api/triage/${item!.id}`)).body
     expect(detail.riskProfile).toEqual({ ...NO_RISKS, chemotherapy: true })
   })
@@ -146,7 +146,7 @@ describe('PUT /api/me/phone and the triage item', () => {
     const id = ids['LPU-1001']!
     // Blood in the urine is urgent (issue 4 defaults, common practice)
     const entry = await patient.post(`/api/patients/${id}/diary`, diaryEntry({ urinary: { blood: true } }))
-    const [item] = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [entry.body.id])
+    const [item] = await sql<{ id: number }>(app, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [entry.body.id])
     const nurse = await Client.signIn(app.url, 'nurse2@demo.tidewell.test')
     const detail = (await nurse.get(`/api/triage/${item!.id}`)).body
     expect(detail.contact.phones.length).toBeGreaterThan(0)

@@ -50,16 +50,16 @@ const day = (d: Date) => d.toISOString().slice(0, 10)
 async function addQuietPatients(count: number, from: number) {
   const now = new Date()
   const given = new Date(now.getTime() - 10 * 86_400_000)
-  const [{ regimenId }] = await sql<{ regimenId: number }>(app.dbPath, `SELECT id AS regimenId FROM regimens WHERE interval_days = 84`) as [{ regimenId: number }]
-  const [{ nurseId }] = await sql<{ nurseId: number }>(app.dbPath, `SELECT id AS nurseId FROM users WHERE email = 'nurse@demo.tidewell.test'`) as [{ nurseId: number }]
+  const [{ regimenId }] = await sql<{ regimenId: number }>(app, `SELECT id AS "regimenId" FROM regimens WHERE interval_days = 84`) as [{ regimenId: number }]
+  const [{ nurseId }] = await sql<{ nurseId: number }>(app, `SELECT id AS "nurseId" FROM users WHERE email = 'nurse@demo.tidewell.test'`) as [{ nurseId: number }]
   for (let n = from; n < from + count; n++) {
-    await sql(app.dbPath, `INSERT INTO users (email, role, name, language, active, created_at, updated_at) VALUES (?, 'patient', ?, 'en', 1, ?, ?)`,
+    await sql(app, `INSERT INTO users (email, role, name, language, active, created_at, updated_at) VALUES (?, 'patient', ?, 'en', 1, ?, ?)`,
       [`quiet${n}@demo.tidewell.test`, `Quiet Patient ${n}`, stamp(now), stamp(now)])
-    await sql(app.dbPath, `INSERT INTO patients (user_id, clinic_number, date_of_birth, created_at, updated_at)
+    await sql(app, `INSERT INTO patients (user_id, clinic_number, date_of_birth, created_at, updated_at)
       SELECT id, ?, '1950-01-01', ?, ? FROM users WHERE email = ?`, [`LPU-9${String(n).padStart(3, '0')}`, stamp(now), stamp(now), `quiet${n}@demo.tidewell.test`])
-    await sql(app.dbPath, `INSERT INTO patient_regimens (patient_id, regimen_id, starts_on, created_at, updated_at)
+    await sql(app, `INSERT INTO patient_regimens (patient_id, regimen_id, starts_on, created_at, updated_at)
       SELECT id, ?, ?, ?, ? FROM patients WHERE clinic_number = ?`, [regimenId, day(given), stamp(now), stamp(now), `LPU-9${String(n).padStart(3, '0')}`])
-    await sql(app.dbPath, `INSERT INTO injections (patient_id, regimen_id, given_at, given_on, site, lot_number, lot_expires_on, given_by_user_id, created_at, updated_at)
+    await sql(app, `INSERT INTO injections (patient_id, regimen_id, given_at, given_on, site, lot_number, lot_expires_on, given_by_user_id, created_at, updated_at)
       SELECT id, ?, ?, ?, 'gluteal-left', 'TEST-LOT', '2030-01-01', ?, ?, ? FROM patients WHERE clinic_number = ?`,
     [regimenId, stamp(given), day(given), nurseId, stamp(now), stamp(now), `LPU-9${String(n).padStart(3, '0')}`])
   }
@@ -72,7 +72,7 @@ describe('reads that do little', () => {
     // A note alone opens a routine queue item (rules version 3), so there is an item to open.
     const sent = await patient.post(`/api/patients/${ids['LPU-1001']}/diary`, diaryEntry({ note: 'Tired this week.' }))
     expect(sent.status).toBe(201)
-    const [item] = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [sent.body.id])
+    const [item] = await sql<{ id: number }>(app, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [sent.body.id])
     const triage = queries(await nurse.get(`/api/triage/${item!.id}`))
     const dueList = queries(await nurse.get('/api/due-list'))
     console.info(`[query-counts] schedule ${schedule}, /today SSR ${today}, triage item ${triage}, due list ${dueList}`)
@@ -93,7 +93,7 @@ describe('reads that do little', () => {
       reminders: await sweep('schedule:reminders'),
     }
     const beforeLater = (await nurse.get('/api/due-list')).body.later as number
-    const [{ n: patients }] = await sql<{ n: number }>(app.dbPath, 'SELECT COUNT(*) AS n FROM patients') as [{ n: number }]
+    const [{ n: patients }] = await sql<{ n: number }>(app, 'SELECT COUNT(*) AS n FROM patients') as [{ n: number }]
     expect(patients).toBe(12)
 
     await addQuietPatients(28, 1)
@@ -124,7 +124,7 @@ describe('the hot queries use an index', () => {
     ['next appointment of a patient', `SELECT * FROM appointments WHERE patient_id = 1 AND status IN ('booked', 'confirmed') AND starts_at >= '2026-01-01' ORDER BY starts_at, id LIMIT 1`, 'appointments_patient_id_starts_at'],
   ]
   it.each(plans)('%s', async (_name, statement, index) => {
-    const plan = await sql<{ detail: string }>(app.dbPath, `EXPLAIN QUERY PLAN ${statement}`)
+    const plan = await sql<{ detail: string }>(app, `EXPLAIN QUERY PLAN ${statement}`)
     expect(plan.map(p => p.detail).join(' | ')).toMatch(new RegExp(`USING (COVERING )?INDEX ${index}\\b`))
   })
 })

@@ -106,7 +106,7 @@ describe('GET /api/ready', () => {
     expect((await new Client(stuck.url).post('/api/auth/forgot-password', { email: 'cyril@demo.tidewell.test' })).status).toBe(202)
 
     type Row = { id: number, dedupe_key: string | null, attempts: number, next_attempt_at: string, updated_at: string, last_error: string | null, to_address: string }
-    const rows = () => sql<Row>(stuck.dbPath, 'SELECT id, dedupe_key, attempts, next_attempt_at, updated_at, last_error, to_address FROM outbox_messages WHERE status = \'pending\'')
+    const rows = () => sql<Row>(stuck, 'SELECT id, dedupe_key, attempts, next_attempt_at, updated_at, last_error, to_address FROM outbox_messages WHERE status = \'pending\'')
     const alertRows = (all: Row[]) => all.filter(r => r.dedupe_key?.startsWith('triageAlert:'))
     const resetRow = (all: Row[]) => all.find(r => r.to_address === 'cyril@demo.tidewell.test')
     // The worker polls every 200 ms here; wait until it has tried each once.
@@ -132,7 +132,7 @@ describe('GET /api/ready', () => {
     expect(young.status, JSON.stringify(young.body)).toBe(200)
     expect(young.body.checks.outbox.oldestMinutes).toBeLessThan(15)
 
-    await sql(stuck.dbPath, 'UPDATE outbox_messages SET created_at = ? WHERE id = ?', [stored(new Date(Date.now() - 20 * 60 * 1000)), reset.id])
+    await sql(stuck, 'UPDATE outbox_messages SET created_at = ? WHERE id = ?', [stored(new Date(Date.now() - 20 * 60 * 1000)), reset.id])
     const late = await ready(stuck)
     expect(late.status, JSON.stringify(late.body)).toBe(503)
     expect(late.body.failed).toEqual(['outbox'])
@@ -146,7 +146,7 @@ describe('GET /api/admin/outbox', () => {
     const admin = await Client.signIn(stuck.url, 'admin@demo.tidewell.test')
     const reply = await admin.get('/api/admin/outbox')
     expect(reply.status).toBe(200)
-    const pending = await sql<{ n: number }>(stuck.dbPath, 'SELECT COUNT(*) AS n FROM outbox_messages WHERE status = \'pending\'')
+    const pending = await sql<{ n: number }>(stuck, 'SELECT COUNT(*) AS n FROM outbox_messages WHERE status = \'pending\'')
     expect(reply.body.backlog.count).toBe(pending[0]!.n)
     expect(reply.body.backlog.count).toBeGreaterThanOrEqual(2)
     expect(reply.body.backlog.alerts).toBeGreaterThan(0)
@@ -161,7 +161,7 @@ describe('GET /api/admin/outbox', () => {
 
     const nurse = await Client.signIn(stuck.url, 'nurse@demo.tidewell.test')
     expect((await nurse.get('/api/admin/outbox')).status).toBe(403)
-    const audited = await sql<{ action: string }>(stuck.dbPath, 'SELECT action FROM audit_events WHERE action = \'outbox.read\'')
+    const audited = await sql<{ action: string }>(stuck, 'SELECT action FROM audit_events WHERE action = \'outbox.read\'')
     expect(audited).toHaveLength(1)
 
     // The page, rendered on the server, says the same in words.

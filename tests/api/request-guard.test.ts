@@ -37,7 +37,7 @@ beforeAll(async () => {
 })
 afterAll(() => app?.stop())
 
-const count = async (table: string) => (await sql<{ n: number }>(app.dbPath, `SELECT COUNT(*) AS n FROM ${table}`))[0]!.n
+const count = async (table: string) => (await sql<{ n: number }>(app, `SELECT COUNT(*) AS n FROM ${table}`))[0]!.n
 
 /** What a form on another site makes the browser send: a form-encoded body, the other site's Origin and the user's cookie. */
 async function crossSiteForm(as: Client, path: string, fields: Record<string, string>) {
@@ -57,7 +57,7 @@ describe('cross-site requests with the user\'s cookie are refused and change not
     expect(reply.status).toBe(403)
     expect(reply.body).toMatchObject({ statusCode: 403, message: 'errors.crossSite' })
     expect(await count('users')).toBe(users)
-    expect(await sql(app.dbPath, 'SELECT id FROM users WHERE email = ?', ['planted@evil.example'])).toHaveLength(0)
+    expect(await sql(app, 'SELECT id FROM users WHERE email = ?', ['planted@evil.example'])).toHaveLength(0)
   })
 
   it('a nurse\'s session does not record a lab result or act on a triage item', async () => {
@@ -69,13 +69,13 @@ describe('cross-site requests with the user\'s cookie are refused and change not
     // A testosterone above castrate level on therapy opens a queue item (same origin, JSON: accepted).
     const escaped = await nurse.post(`/api/patients/${ids['LPU-1002']}/labs`, { kind: 'testosterone', takenOn: today, unit: 'ng/dL', value: 80 })
     expect(escaped.status, JSON.stringify(escaped.body)).toBe(201)
-    const [item] = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM triage_items WHERE source_key = ?', [`lab:${escaped.body.id}`])
+    const [item] = await sql<{ id: number }>(app, 'SELECT id FROM triage_items WHERE source_key = ?', [`lab:${escaped.body.id}`])
     expect(item).toBeTruthy()
     const events = await count('triage_events')
     const acted = await crossSiteForm(nurse, `/api/triage/${item!.id}/events`, { type: 'close' })
     expect(acted.status).toBe(403)
     expect(await count('triage_events')).toBe(events)
-    expect((await sql<{ status: string }>(app.dbPath, 'SELECT status FROM triage_items WHERE id = ?', [item!.id]))[0]!.status).not.toBe('closed')
+    expect((await sql<{ status: string }>(app, 'SELECT status FROM triage_items WHERE id = ?', [item!.id]))[0]!.status).not.toBe('closed')
   })
 
   it('a patient\'s session does not confirm his appointment (a route with no body)', async () => {

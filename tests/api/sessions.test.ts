@@ -56,7 +56,7 @@ async function resetLinks(email: string, count: number): Promise<string[]> {
   // Oldest first, by the order the server issued them.
   const ids = new Map<string, number>()
   for (const token of tokens) {
-    const [row] = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM one_time_tokens WHERE token_hash = ?', [createHash('sha256').update(token).digest('hex')])
+    const [row] = await sql<{ id: number }>(app, 'SELECT id FROM one_time_tokens WHERE token_hash = ?', [createHash('sha256').update(token).digest('hex')])
     ids.set(token, row!.id)
   }
   return tokens.sort((a, b) => ids.get(a)! - ids.get(b)!)
@@ -72,7 +72,7 @@ describe('revocable sessions', () => {
     expect((await another.get('/api/_auth/session')).body.user.name).toBe('Elias Marwood')
 
     // The row id stays on the server: the client's view of the session does not carry it.
-    const [row] = await sql<{ id: string }>(app.dbPath, `SELECT s.id FROM user_sessions s JOIN users u ON u.id = s.user_id WHERE u.email = 'patient@demo.tidewell.test' AND s.ended_at IS NULL`)
+    const [row] = await sql<{ id: string }>(app, `SELECT s.id FROM user_sessions s JOIN users u ON u.id = s.user_id WHERE u.email = 'patient@demo.tidewell.test' AND s.ended_at IS NULL`)
     expect(row!.id.length).toBeGreaterThanOrEqual(32)
     expect(JSON.stringify((await patient.get('/api/_auth/session')).body)).not.toContain(row!.id)
 
@@ -81,7 +81,7 @@ describe('revocable sessions', () => {
     expect(api.status).toBe(401)
     expect(api.body.message).toBe('errors.signedOut')
     expect((await another.get('/api/_auth/session')).status).toBe(401)
-    const [ended] = await sql<{ ended_reason: string }>(app.dbPath, 'SELECT ended_reason FROM user_sessions WHERE id = ?', [row!.id])
+    const [ended] = await sql<{ ended_reason: string }>(app, 'SELECT ended_reason FROM user_sessions WHERE id = ?', [row!.id])
     expect(ended!.ended_reason).toBe('sign-out')
   })
 
@@ -121,7 +121,7 @@ describe('revocable sessions', () => {
     expect((await laptopCopy.get('/api/_auth/session')).status).toBe(401)
     expect((await phone.get(schedule)).status).toBe(401)
     expect((await someoneElse.get(schedule)).status).toBe(200)
-    const reasons = await sql<{ ended_reason: string }>(app.dbPath, `SELECT ended_reason FROM user_sessions s JOIN users u ON u.id = s.user_id WHERE u.email = 'caregiver@demo.tidewell.test'`)
+    const reasons = await sql<{ ended_reason: string }>(app, `SELECT ended_reason FROM user_sessions s JOIN users u ON u.id = s.user_id WHERE u.email = 'caregiver@demo.tidewell.test'`)
     expect(reasons.map(r => r.ended_reason)).toEqual(['sign-out-everywhere', 'sign-out-everywhere'])
     // Signing out everywhere needs a live session.
     expect((await new Client(app.url).post('/api/auth/sign-out-everywhere')).status).toBe(401)
@@ -186,7 +186,7 @@ describe('revocable sessions', () => {
     const session = await another.get('/api/_auth/session')
     expect(session.status).toBe(401)
     expect(session.body.message).toBe('errors.sessionIdle')
-    const [row] = await sql<{ ended_reason: string }>(app.dbPath, `SELECT ended_reason FROM user_sessions s JOIN users u ON u.id = s.user_id WHERE u.email = 'ramon@demo.tidewell.test'`)
+    const [row] = await sql<{ ended_reason: string }>(app, `SELECT ended_reason FROM user_sessions s JOIN users u ON u.id = s.user_id WHERE u.email = 'ramon@demo.tidewell.test'`)
     expect(row!.ended_reason).toBe('idle')
   })
 

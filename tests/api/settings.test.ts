@@ -20,7 +20,7 @@ describe('clinic settings', () => {
     expect(saved.status).toBe(200)
     expect(saved.body).toMatchObject({ emergencyNumber: '112', windowLateDays: 5 })
     expect((await new Client(app.url).get('/api/clinic')).body.emergencyNumber).toBe('112')
-    const audit = await sql<{ resource: string }>(app.dbPath, `SELECT resource FROM audit_events WHERE action = 'settings.update'`)
+    const audit = await sql<{ resource: string }>(app, `SELECT resource FROM audit_events WHERE action = 'settings.update'`)
     expect(audit.map(a => a.resource)).toEqual(['settings:emergencyNumber,windowLateDays'])
   })
 

@@ -54,7 +54,7 @@ describe('second factor', () => {
     expect(enrolment.body.qr).toMatch(/^data:image\/svg\+xml;base64,/)
     expect(enrolment.body.uri).toContain(`secret=${enrolment.body.secret}`)
     const secret: string = enrolment.body.secret
-    const stored = await sql<{ s: string | null, p: string | null }>(app.dbPath, 'SELECT totp_secret AS s, totp_pending_secret AS p FROM users WHERE email = ?', [email])
+    const stored = await sql<{ s: string | null, p: string | null }>(app, 'SELECT totp_secret AS s, totp_pending_secret AS p FROM users WHERE email = ?', [email])
     expect(stored[0]!.p).not.toContain(secret)
 
     const confirmed = await client.post('/api/auth/totp/confirm', { code: await totpCode(app.url, email, secret) })

@@ -22,7 +22,7 @@ afterAll(async () => {
   await mail?.stop()
 })
 
-const count = async (table: string) => (await sql<{ n: number }>(app.dbPath, `SELECT COUNT(*) AS n FROM ${table}`))[0]!.n
+const count = async (table: string) => (await sql<{ n: number }>(app, `SELECT COUNT(*) AS n FROM ${table}`))[0]!.n
 
 // Blood in the urine is urgent (issue 4 defaults, common practice).
 const urgentEntry = () => diaryEntry({ urinary: { blood: true } })
@@ -34,14 +34,14 @@ describe('queue items are created with the entry', () => {
     const ok = await patient.post(`/api/patients/${id}/diary`, urgentEntry())
     expect(ok.status).toBe(201)
     expect(ok.body.level).toBe('urgent')
-    const [item] = await sql<{ level: string, status: string, respond_by: string }>(app.dbPath, 'SELECT level, status, respond_by FROM triage_items WHERE diary_entry_id = ?', [ok.body.id])
+    const [item] = await sql<{ level: string, status: string, respond_by: string }>(app, 'SELECT level, status, respond_by FROM triage_items WHERE diary_entry_id = ?', [ok.body.id])
     expect(item).toMatchObject({ level: 'urgent', status: 'new' })
     // Urgent target: within 4 hours (clinic default).
     expect(new Date(item!.respond_by).getTime() - new Date(ok.body.submittedAt).getTime()).toBe(4 * 3600_000)
 
     const entriesBefore = await count('diary_entries')
     const itemsBefore = await count('triage_items')
-    await sql(app.dbPath, `CREATE TRIGGER refuse_items BEFORE INSERT ON triage_items BEGIN SELECT RAISE(ABORT, 'refused by test'); END`)
+    await sql(app, `CREATE TRIGGER refuse_items BEFORE INSERT ON triage_items BEGIN SELECT RAISE(ABORT, 'refused by test'); END`)
     try {
       const failed = await patient.post(`/api/patients/${id}/diary`, urgentEntry())
       expect(failed.status).toBe(500)
@@ -49,7 +49,7 @@ describe('queue items are created with the entry', () => {
       expect(await count('triage_items')).toBe(itemsBefore)
     }
     finally {
-      await sql(app.dbPath, 'DROP TRIGGER refuse_items')
+      await sql(app, 'DROP TRIGGER refuse_items')
     }
   })
 
@@ -59,11 +59,11 @@ describe('queue items are created with the entry', () => {
     // no baseline to be worse than (a rise of 2 points since the last report raises it).
     const routine = await patient.post(`/api/patients/${ids['LPU-1009']}/diary`, diaryEntry({ mood: { phq2Interest: 2, phq2Down: 1 } }))
     expect(routine.body.level).toBe('routine')
-    const [item] = await sql<{ level: string }>(app.dbPath, 'SELECT level FROM triage_items WHERE diary_entry_id = ?', [routine.body.id])
+    const [item] = await sql<{ level: string }>(app, 'SELECT level FROM triage_items WHERE diary_entry_id = ?', [routine.body.id])
     expect(item!.level).toBe('routine')
     const quiet = await patient.post(`/api/patients/${ids['LPU-1009']}/diary`, diaryEntry())
     expect(quiet.body.level).toBe('none')
-    expect((await sql(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [quiet.body.id]))).toHaveLength(0)
+    expect((await sql(app, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [quiet.body.id]))).toHaveLength(0)
   })
 })
 
@@ -73,7 +73,7 @@ describe('alerts', () => {
     const patient = await Client.signIn(app.url, 'kenji@demo.tidewell.test')
     const reply = await patient.post(`/api/patients/${ids['LPU-1006']}/diary`, diaryEntry({ heart: { fainting: true } }))
     expect(reply.body.level).toBe('urgent')
-    const [item] = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [reply.body.id])
+    const [item] = await sql<{ id: number }>(app, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [reply.body.id])
     const reference = `TW-${String(item!.id).padStart(6, '0')}`
     await new Promise(r => setTimeout(r, 1200))
     expect(mail.messages.filter(m => m.subject.includes(reference))).toHaveLength(0)
@@ -92,10 +92,10 @@ describe('escalation task', () => {
   it('escalates an item still new after its respond-by time, once, and never before', async () => {
     const patient = await Client.signIn(app.url, 'ramon@demo.tidewell.test')
     const reply = await patient.post(`/api/patients/${ids['LPU-1007']}/diary`, urgentEntry())
-    const [item] = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [reply.body.id])
+    const [item] = await sql<{ id: number }>(app, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [reply.body.id])
     const respondBy = new Date(reply.body.respondBy).getTime()
     const admin = await Client.signIn(app.url, 'admin@demo.tidewell.test')
-    const escalated = async () => (await sql(app.dbPath, `SELECT id FROM triage_events WHERE item_id = ? AND type = 'escalated'`, [item!.id])).length
+    const escalated = async () => (await sql(app, `SELECT id FROM triage_events WHERE item_id = ? AND type = 'escalated'`, [item!.id])).length
 
     await admin.post('/api/admin/tasks/triage:escalate', { now: new Date(respondBy - 60_000).toISOString() })
     expect(await escalated()).toBe(0)
@@ -121,11 +121,11 @@ describe('emergency escalation', () => {
     const patient = await Client.signIn(app.url, 'cyril@demo.tidewell.test')
     const reply = await patient.post(`/api/patients/${ids['LPU-1008']}/diary`, diaryEntry({ rightNow: { newWeakness: true } }))
     expect(reply.body.level).toBe('emergency')
-    const [item] = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [reply.body.id])
+    const [item] = await sql<{ id: number }>(app, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [reply.body.id])
     // Respond at once: the respond-by time is the minute it came in.
     const opened = new Date(reply.body.respondBy).getTime()
     const admin = await Client.signIn(app.url, 'admin@demo.tidewell.test')
-    const escalated = async () => (await sql(app.dbPath, `SELECT id FROM triage_events WHERE item_id = ? AND type = 'escalated'`, [item!.id])).length
+    const escalated = async () => (await sql(app, `SELECT id FROM triage_events WHERE item_id = ? AND type = 'escalated'`, [item!.id])).length
     for (const minutes of [1, 14]) {
       await admin.post('/api/admin/tasks/triage:escalate', { now: new Date(opened + minutes * 60_000).toISOString() })
       expect(await escalated(), `${minutes} min`).toBe(0)
@@ -173,7 +173,7 @@ describe('the queue', () => {
     const tobias = await Client.signIn(app.url, 'nurse2@demo.tidewell.test')
     const patient = await Client.signIn(app.url, 'mateo@demo.tidewell.test')
     const entry = await patient.post(`/api/patients/${ids['LPU-1012']}/diary`, urgentEntry())
-    const [{ id }] = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [entry.body.id]) as [{ id: number }]
+    const [{ id }] = await sql<{ id: number }>(app, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [entry.body.id]) as [{ id: number }]
 
     // Both saw nobody on it and press "Take it" together.
     const answers = await Promise.all([nora, tobias].map(n => n.post(`/api/triage/${id}/events`, { type: 'claim', from: null })))
@@ -181,13 +181,13 @@ describe('the queue', () => {
     const loser = answers.find(a => a.status === 409)!
     expect(loser.body.message).toBe('errors.triageTakenMeanwhile')
     const winnerName = answers.find(a => a.status === 200)!.body.assignee.name
-    const [row] = await sql<{ name: string }>(app.dbPath, 'SELECT u.name FROM triage_items t JOIN users u ON u.id = t.assignee_user_id WHERE t.id = ?', [id])
+    const [row] = await sql<{ name: string }>(app, 'SELECT u.name FROM triage_items t JOIN users u ON u.id = t.assignee_user_id WHERE t.id = ?', [id])
     expect(row!.name).toBe(winnerName)
-    const claims = await sql<{ n: number }>(app.dbPath, "SELECT COUNT(*) AS n FROM triage_events WHERE item_id = ? AND type = 'claimed'", [id])
+    const claims = await sql<{ n: number }>(app, "SELECT COUNT(*) AS n FROM triage_events WHERE item_id = ? AND type = 'claimed'", [id])
     expect(claims[0]!.n).toBe(1)
 
     // Taking it over on purpose names the nurse now on it, and works.
-    const winnerId = (await sql<{ a: number }>(app.dbPath, 'SELECT assignee_user_id AS a FROM triage_items WHERE id = ?', [id]))[0]!.a
+    const winnerId = (await sql<{ a: number }>(app, 'SELECT assignee_user_id AS a FROM triage_items WHERE id = ?', [id]))[0]!.a
     const other = answers[0]!.status === 409 ? nora : tobias
     expect((await other.post(`/api/triage/${id}/events`, { type: 'claim', from: winnerId })).status).toBe(200)
   })
@@ -196,7 +196,7 @@ describe('the queue', () => {
     const nurse = await Client.signIn(app.url, 'nurse@demo.tidewell.test')
     const patient = await Client.signIn(app.url, 'mateo@demo.tidewell.test')
     const entry = await patient.post(`/api/patients/${ids['LPU-1012']}/diary`, urgentEntry())
-    const [{ id }] = await sql<{ id: number }>(app.dbPath, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [entry.body.id]) as [{ id: number }]
+    const [{ id }] = await sql<{ id: number }>(app, 'SELECT id FROM triage_items WHERE diary_entry_id = ?', [entry.body.id]) as [{ id: number }]
 
     const claimed = await nurse.post(`/api/triage/${id}/events`, { type: 'claim' })
     expect(claimed.body).toMatchObject({ status: 'in-progress', assignee: { name: 'Nora Lindqvist' } })
@@ -219,7 +219,7 @@ describe('the queue', () => {
     expect(history[0].review).toEqual({ status: 'closed', disposition: 'visit-booked', closedAt: expect.any(String) })
     expect(Date.parse(history[0].review.closedAt)).toBeGreaterThanOrEqual(Date.parse(history[0].submittedAt))
 
-    const audit = await sql<{ action: string }>(app.dbPath, `SELECT action FROM audit_events WHERE patient_id = ? AND action = 'triage.work'`, [ids['LPU-1012']])
+    const audit = await sql<{ action: string }>(app, `SELECT action FROM audit_events WHERE patient_id = ? AND action = 'triage.work'`, [ids['LPU-1012']])
     expect(audit.length).toBeGreaterThanOrEqual(6)
   })
 
@@ -238,7 +238,7 @@ describe('overdue injections', () => {
     const admin = await Client.signIn(app.url, 'admin@demo.tidewell.test')
     const first = await admin.post('/api/admin/tasks/triage:overdue', {})
     expect(first.status).toBe(200)
-    const items = await sql<{ patient_id: number, level: string }>(app.dbPath, `SELECT patient_id, level FROM triage_items WHERE source = 'overdue-injection'`)
+    const items = await sql<{ patient_id: number, level: string }>(app, `SELECT patient_id, level FROM triage_items WHERE source = 'overdue-injection'`)
     expect(items.length).toBe(first.body.result.opened)
     expect(items.every(i => i.level === 'urgent')).toBe(true)
     const again = await admin.post('/api/admin/tasks/triage:overdue', {})

@@ -43,7 +43,7 @@ const GTIN = '09506000134352' // check digit 2, worked by hand in tests/unit/gs1
 const label = (expiresOn: string, lot: string) => `(01)${GTIN}(17)${yymmdd(expiresOn)}(10)${lot}`
 const base = (clinicNumber: string) => `/api/patients/${ids[clinicNumber]}/visits`
 const injectionCount = async (clinicNumber: string) =>
-  (await sql<{ n: number }>(app.dbPath, 'SELECT COUNT(*) AS n FROM injections WHERE patient_id = ?', [ids[clinicNumber]]))[0]!.n
+  (await sql<{ n: number }>(app, 'SELECT COUNT(*) AS n FROM injections WHERE patient_id = ?', [ids[clinicNumber]]))[0]!.n
 
 /** Opens a walk-in visit and records checks (with a window reason when one is asked). */
 async function checkedVisit(clinicNumber: string, windowReason?: string) {
@@ -138,7 +138,7 @@ describe('a whole visit, with the carton scanned', () => {
     await mail.waitFor(m => m.to.includes('desmond@demo.tidewell.test') && m.attachments.some(a => a.filename?.endsWith('.ics')))
 
     // Every step is in the audit trail, with its outcome.
-    const lines = await sql<{ resource: string, outcome: string }>(app.dbPath, `SELECT resource, outcome FROM audit_events WHERE patient_id = ? AND resource LIKE 'POST /api/patients/%/visits%' ORDER BY id`, [ids['LPU-1009']])
+    const lines = await sql<{ resource: string, outcome: string }>(app, `SELECT resource, outcome FROM audit_events WHERE patient_id = ? AND resource LIKE 'POST /api/patients/%/visits%' ORDER BY id`, [ids['LPU-1009']])
     const steps = lines.map(l => `${l.resource.replace(/^POST \/api\/patients\/\d+\/visits/, '').replace(/\/\d+/g, '/:n')} ${l.outcome}`)
     expect(steps).toEqual(expect.arrayContaining([' done', '/:n/checks refused-invalid', '/:n/checks done', '/:n/kits done', '/:n/kits/:n/mixed done', '/:n/give done', '/:n/after refused-invalid', '/:n/after done']))
 
@@ -260,8 +260,8 @@ describe('blood on aspiration, and the time from mixing', () => {
       expect(confirmed.body).toMatchObject({ status: 'given', mixGapMinutes: 4, injection: { lotNumber: 'H-TWO', site: 'gluteal-left' } })
       expect(await injectionCount('LPU-1011')).toBe(5)
       // The wasted kit is kept with its lot; it never became an injection.
-      expect(await sql(app.dbPath, `SELECT lot_number FROM injections WHERE patient_id = ? AND lot_number = 'H-ONE'`, [ids['LPU-1011']])).toEqual([])
-      expect(await sql(app.dbPath, `SELECT lot_number, status, waste_reason FROM visit_kits WHERE visit_id = ? ORDER BY id`, [opened.body.id]))
+      expect(await sql(app, `SELECT lot_number FROM injections WHERE patient_id = ? AND lot_number = 'H-ONE'`, [ids['LPU-1011']])).toEqual([])
+      expect(await sql(app, `SELECT lot_number, status, waste_reason FROM visit_kits WHERE visit_id = ? ORDER BY id`, [opened.body.id]))
         .toEqual([{ lot_number: 'H-ONE', status: 'wasted', waste_reason: 'blood-on-aspiration' }, { lot_number: 'H-TWO', status: 'given', waste_reason: null }])
     }
     finally {
@@ -277,7 +277,7 @@ describe('stops before the kit', () => {
     const stopped = await nurse.post(`${url}/checks`, { identityConfirmed: true, hypersensitivity: true, rightNow: [], rightNowAsked: true, windowReason: 'Asked to come early.' })
     expect(stopped.status).toBe(200)
     expect(stopped.body).toMatchObject({ status: 'stopped', triageItemId: expect.any(Number) })
-    const [item] = await sql<{ level: string, source: string, reasons: string }>(app.dbPath, 'SELECT level, source, reasons FROM triage_items WHERE id = ?', [stopped.body.triageItemId])
+    const [item] = await sql<{ level: string, source: string, reasons: string }>(app, 'SELECT level, source, reasons FROM triage_items WHERE id = ?', [stopped.body.triageItemId])
     expect(item).toMatchObject({ level: 'urgent', source: 'visit' })
     expect(JSON.parse(item!.reasons)[0].source).toMatch(/prescribing information, Contraindications/)
     const alert = await mail.waitFor(m => m.to.includes('clinician@demo.tidewell.test') && m.text.includes(`/staff/triage/${stopped.body.triageItemId}`))
@@ -292,7 +292,7 @@ describe('stops before the kit', () => {
     const told = await nurse.post(`${url}/checks`, { identityConfirmed: true, hypersensitivity: false, rightNow: ['newWeakness'], rightNowAsked: true, windowReason: 'Came in worried.' })
     expect(told.status, JSON.stringify(told.body)).toBe(200)
     expect(told.body).toMatchObject({ status: 'not-given', notGiven: { reason: 'unwell' }, triageItemId: expect.any(Number) })
-    const [item] = await sql<{ level: string, reasons: string }>(app.dbPath, 'SELECT level, reasons FROM triage_items WHERE id = ?', [told.body.triageItemId])
+    const [item] = await sql<{ level: string, reasons: string }>(app, 'SELECT level, reasons FROM triage_items WHERE id = ?', [told.body.triageItemId])
     expect(item!.level).toBe('emergency')
     expect(JSON.parse(item!.reasons).map((r: { rule: string, source: string }) => [r.rule, r.source.slice(0, 17)])).toContainEqual(['right-now-weakness', 'NICE guideline NG'])
     await mail.waitFor(m => m.to.includes('nurse@demo.tidewell.test') && m.text.includes(`/staff/triage/${told.body.triageItemId}`))

@@ -42,7 +42,7 @@ describe('load: the built server under many clients (autocannon, loopback)', () 
   beforeAll(async () => {
     app = await startApp()
     // The demo clinic's patients, and invented ones up to WRITERS.
-    const demo = (await sql<{ email: string }>(app.dbPath, `SELECT email FROM users WHERE role = 'patient' AND active = 1 AND password_hash IS NOT NULL ORDER BY id`)).map(row => row.email)
+    const demo = (await sql<{ email: string }>(app, `SELECT email FROM users WHERE role = 'patient' AND active = 1 AND password_hash IS NOT NULL ORDER BY id`)).map(row => row.email)
     const created = await addBenchPatients(app.dbPath, WRITERS - demo.length)
     writers = await signInAll(app.url, [...demo, ...created])
     patient = writers.find(writer => writer.email === 'patient@demo.tidewell.test')!

@@ -51,8 +51,8 @@ describe('triage queue query at scale', () => {
   afterAll(() => app?.stop())
 
   it('prints median and 95th percentile for the queue and its filters', async () => {
-    const [{ n: entries }] = await sql<{ n: number }>(app.dbPath, 'SELECT COUNT(*) AS n FROM diary_entries') as [{ n: number }]
-    const [{ n: open }] = await sql<{ n: number }>(app.dbPath, `SELECT COUNT(*) AS n FROM triage_items WHERE status != 'closed'`) as [{ n: number }]
+    const [{ n: entries }] = await sql<{ n: number }>(app, 'SELECT COUNT(*) AS n FROM diary_entries') as [{ n: number }]
+    const [{ n: open }] = await sql<{ n: number }>(app, `SELECT COUNT(*) AS n FROM triage_items WHERE status != 'closed'`) as [{ n: number }]
     expect(entries).toBeGreaterThanOrEqual(ENTRIES)
     const nurse = await Client.signIn(app.url, 'nurse@demo.tidewell.test')
     const rows: Record<string, string> = { 'diary entries': entries.toLocaleString('en-US'), 'open queue items': open.toLocaleString('en-US') }

@@ -1,15 +1,18 @@
 import type { ChildProcess } from 'node:child_process'
 import { spawn } from 'node:child_process'
-import { chownSync, mkdtempSync, rmSync } from 'node:fs'
+import { chownSync, existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { freePort } from './ports'
+import { createDatabase, onPostgres } from './postgres'
 
 const root = new URL('../../', import.meta.url).pathname
 
 export interface RunningApp {
   url: string
   dbPath: string
+  /** On PostgreSQL (TIDEWELL_DB=postgres): the app's own database; undefined on SQLite. */
+  databaseUrl?: string
   dataDir: string
   /** The server's process id. */
   pid: number
@@ -20,13 +23,31 @@ export interface RunningApp {
 }
 
 /**
- * Starts the built server (.output) with a fresh SQLite file, the demo clinic seeded and
- * e-mail going to the given SMTP URL (or to the app's own mail catcher when none is given).
+ * The database of the app that keeps its data in `dataDir`: on PostgreSQL a new database
+ * in the tests' cluster, named in the folder (postgres-url) so that a restart on the same
+ * folder finds the same data, as it finds the same SQLite file.
  */
-export async function startApp(options: { smtpUrl?: string, env?: Record<string, string>, dataDir?: string, user?: { uid: number, gid: number } } = {}): Promise<RunningApp> {
+async function databaseOf(dataDir: string, given?: string): Promise<string | undefined> {
+  if (given) return given
+  if (!onPostgres) return undefined
+  const file = join(dataDir, 'postgres-url')
+  if (existsSync(file)) return readFileSync(file, 'utf8').trim()
+  const url = await createDatabase()
+  writeFileSync(file, url)
+  return url
+}
+
+/**
+ * Starts the built server (.output) with a fresh SQLite file (on PostgreSQL, a fresh
+ * database), the demo clinic seeded and e-mail going to the given SMTP URL (or to the app's
+ * own mail catcher when none is given). Several apps on one database: give them the same
+ * `databaseUrl`.
+ */
+export async function startApp(options: { smtpUrl?: string, env?: Record<string, string>, dataDir?: string, databaseUrl?: string, user?: { uid: number, gid: number } } = {}): Promise<RunningApp> {
   const port = await freePort()
   const dataDir = options.dataDir ?? mkdtempSync(join(tmpdir(), 'tidewell-test-'))
   const dbPath = join(dataDir, 'tidewell.sqlite')
+  const databaseUrl = await databaseOf(dataDir, options.databaseUrl)
   const url = `http://127.0.0.1:${port}`
   // With a user (tests that need file permissions to hold when the tests run as root),
   // the server runs as that user and owns its data folder.
@@ -41,6 +62,7 @@ export async function startApp(options: { smtpUrl?: string, env?: Record<string,
       PORT: String(port),
       HOST: '127.0.0.1',
       NUXT_DATABASE_PATH: dbPath,
+      NUXT_DATABASE_URL: databaseUrl ?? '',
       NUXT_SEED_DEMO: 'true',
       NUXT_SESSION_PASSWORD: 'test-session-password-at-least-32-characters-long',
       NUXT_PUBLIC_URL: url,
@@ -70,6 +92,7 @@ export async function startApp(options: { smtpUrl?: string, env?: Record<string,
   return {
     url,
     dbPath,
+    databaseUrl,
     dataDir,
     pid: child.pid!,
     crash: async () => {

@@ -30,7 +30,7 @@ export async function startAppWithPatients(count: number, env: Record<string, st
       SELECT id, 'LOAD-${String(n).padStart(4, '0')}', '1950-06-01', created_at, updated_at
       FROM users WHERE email = 'load-${n}@demo.tidewell.test'`)
   }
-  await sql(first.dbPath, `BEGIN; ${statements.join(';\n')}; COMMIT;`, [], { exec: true })
+  await sql(first, `BEGIN; ${statements.join(';\n')}; COMMIT;`, [], { exec: true })
   const app = await startApp({ env, dataDir: first.dataDir })
   return {
     ...app,
@@ -43,8 +43,8 @@ export async function startAppWithPatients(count: number, env: Record<string, st
 
 /** Signs the load patients in, a few at a time (each sign-in checks a scrypt hash). */
 export async function signInLoadPatients(app: RunningApp, count: number, parallel = 5): Promise<LoadPatient[]> {
-  const rows = await sql<{ email: string, patientId: number }>(app.dbPath,
-    `SELECT u.email AS email, p.id AS patientId FROM users u JOIN patients p ON p.user_id = u.id
+  const rows = await sql<{ email: string, patientId: number }>(app,
+    `SELECT u.email AS email, p.id AS "patientId" FROM users u JOIN patients p ON p.user_id = u.id
      WHERE u.email LIKE 'load-%@demo.tidewell.test' ORDER BY p.id LIMIT ?`, [count])
   const patients: LoadPatient[] = []
   for (let at = 0; at < rows.length; at += parallel) {

@@ -1,8 +1,55 @@
+import pg from 'pg'
 import sqlite3 from 'sqlite3'
 
-/** Runs SQL against a test server's database file (for counting rows or sabotaging a write). */
-export async function sql<T = Record<string, unknown>>(dbPath: string, statement: string, params: unknown[] = [], options: { exec?: boolean } = {}): Promise<T[]> {
-  const db = new sqlite3.Database(dbPath)
+/** A test server's database: its SQLite file, or (TIDEWELL_DB=postgres) its PostgreSQL database. */
+export type Database = string | { dbPath: string, databaseUrl?: string }
+
+/*
+ * Rows read the same from both databases, as SQLite gives them: booleans as 1 and 0,
+ * instants as the text Sequelize stores ('2026-03-08 04:30:00.000 +00:00'), JSON as its
+ * text, counts as numbers.
+ */
+pg.types.setTypeParser(pg.types.builtins.INT8 ?? 20, (value: string) => Number.parseInt(value, 10))
+pg.types.setTypeParser(pg.types.builtins.DATE ?? 1082, (value: string) => value)
+const storedInstant = (at: Date) => `${at.toISOString().replace('T', ' ').replace('Z', '')} +00:00`
+const asSqlite = (value: unknown): unknown => {
+  if (typeof value === 'boolean') return value ? 1 : 0
+  if (value instanceof Date) return storedInstant(value)
+  if (value !== null && typeof value === 'object' && !Buffer.isBuffer(value)) return JSON.stringify(value)
+  return value
+}
+
+/** `?` placeholders as PostgreSQL's $1, $2… (none sits inside a quoted literal in the tests). */
+const numbered = (statement: string) => {
+  let n = 0
+  return statement.replace(/'(?:[^']|'')*'|\?/g, part => (part === '?' ? `$${++n}` : part))
+}
+
+async function onPostgres<T>(url: string, statement: string, params: unknown[], exec: boolean): Promise<T[]> {
+  const client = new pg.Client({ connectionString: url })
+  await client.connect()
+  try {
+    if (exec) {
+      await client.query(statement)
+      return []
+    }
+    const { rows } = await client.query(numbered(statement), params)
+    return rows.map(row => Object.fromEntries(Object.entries(row).map(([key, value]) => [key, asSqlite(value)]))) as T[]
+  }
+  finally {
+    await client.end()
+  }
+}
+
+/**
+ * Runs SQL against a test server's database (for counting rows or sabotaging a write):
+ * given the app (or its file), on whichever database it uses. Write the SQL both accept
+ * (quote camelCase aliases: AS "patientId").
+ */
+export async function sql<T = Record<string, unknown>>(database: Database, statement: string, params: unknown[] = [], options: { exec?: boolean } = {}): Promise<T[]> {
+  const target = typeof database === 'string' ? { dbPath: database } : database
+  if (target.databaseUrl) return onPostgres<T>(target.databaseUrl, statement, params, !!options.exec)
+  const db = new sqlite3.Database(target.dbPath)
   try {
     await new Promise<void>((done, fail) => db.run('PRAGMA busy_timeout = 5000', err => (err ? fail(err) : done())))
     // exec: several statements separated by semicolons, no parameters, no rows back.

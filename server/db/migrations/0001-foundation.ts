@@ -1,4 +1,5 @@
 import { DataTypes } from 'sequelize'
+import { jsonDefault } from './dialect'
 import type { MigrationFn } from './types'
 
 const timestamps = {
@@ -54,7 +55,7 @@ export const up: MigrationFn = async ({ context: qi }) => {
     subject: { type: DataTypes.STRING, allowNull: false },
     text: { type: DataTypes.TEXT, allowNull: false },
     html: { type: DataTypes.TEXT, allowNull: false },
-    attachments: { type: DataTypes.JSON, allowNull: false, defaultValue: '[]' },
+    attachments: { type: DataTypes.JSON, allowNull: false, defaultValue: jsonDefault(qi, '[]') },
     dedupe_key: { type: DataTypes.STRING, allowNull: true, unique: true },
     status: { type: DataTypes.STRING, allowNull: false, defaultValue: 'pending' },
     attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
@@ -69,7 +70,7 @@ export const up: MigrationFn = async ({ context: qi }) => {
     user_id: { type: DataTypes.INTEGER, allowNull: true, references: { model: 'users', key: 'id' }, onDelete: 'CASCADE' },
     purpose: { type: DataTypes.STRING, allowNull: false },
     token_hash: { type: DataTypes.STRING, allowNull: false, unique: true },
-    data: { type: DataTypes.JSON, allowNull: false, defaultValue: '{}' },
+    data: { type: DataTypes.JSON, allowNull: false, defaultValue: jsonDefault(qi, '{}') },
     expires_at: { type: DataTypes.DATE, allowNull: false },
     used_at: { type: DataTypes.DATE, allowNull: true },
     created_at: { type: DataTypes.DATE, allowNull: false },

@@ -1,4 +1,5 @@
 import { DataTypes } from 'sequelize'
+import { jsonDefault } from './dialect'
 import type { MigrationFn } from './types'
 
 export const up: MigrationFn = async ({ context: qi }) => {
@@ -28,7 +29,7 @@ export const up: MigrationFn = async ({ context: qi }) => {
     actor_user_id: { type: DataTypes.INTEGER, allowNull: true, references: { model: 'users', key: 'id' } },
     type: { type: DataTypes.STRING, allowNull: false },
     note: { type: DataTypes.TEXT, allowNull: true },
-    data: { type: DataTypes.JSON, allowNull: false, defaultValue: '{}' },
+    data: { type: DataTypes.JSON, allowNull: false, defaultValue: jsonDefault(qi, '{}') },
     at: { type: DataTypes.DATE, allowNull: false },
   })
   await qi.addIndex('triage_events', ['item_id', 'at'])

@@ -46,6 +46,10 @@ const stamp = (ms: number) => new Date(ms).toISOString().replace('T', ' ').repla
 
 /** SQL for the clinic's date of the column `at` (SQLite knows no time zones, so the offsets go in). */
 export function clinicDaySql(timeZone: string, column = 'at'): string {
+  return sqlDayIn(timeZone, column, () => sqliteClinicDay(timeZone, column))
+}
+
+function sqliteClinicDay(timeZone: string, column: string): string {
   const segments = zoneSegments(timeZone)
   const modifier = (minutes: number) => `'${Math.trunc(minutes)} minutes'`
   const cases = segments.slice(1).reverse().map(([from, minutes]) => `WHEN ${column} >= '${stamp(from)}' THEN ${modifier(minutes)}`)
@@ -54,10 +58,10 @@ export function clinicDaySql(timeZone: string, column = 'at'): string {
 }
 
 /** read, change or refused, as auditKind() tells a look from a change, in SQL. */
-const KIND_SQL = `CASE
+const kindSql = () => `CASE
   WHEN outcome NOT IN ('done', 'allowed') THEN 'refused'
-  WHEN resource GLOB '[A-Z]* /*' THEN (CASE WHEN resource GLOB 'GET /*' OR resource GLOB 'HEAD /*' THEN 'read' ELSE 'change' END)
-  WHEN action GLOB '*.read' THEN 'read'
+  WHEN ${sqlGlob('resource', '[A-Z]* /*')} THEN (CASE WHEN ${sqlGlob('resource', 'GET /*')} OR ${sqlGlob('resource', 'HEAD /*')} THEN 'read' ELSE 'change' END)
+  WHEN ${sqlGlob('action', '*.read')} THEN 'read'
   ELSE 'change' END`
 
 export interface HistoryGroup {
@@ -76,15 +80,15 @@ export async function accessHistory(patientId: number, patientUserId: number, ti
   const from = `FROM audit_events
     WHERE patient_id = :patientId AND (actor_user_id IS NULL OR actor_user_id <> :self) AND outcome <> 'refused-policy'
     GROUP BY actor_user_id, actor_role, day, kind`
-  const select = `SELECT actor_user_id AS actorUserId, actor_role AS actorRole, ${clinicDaySql(timeZone)} AS day, ${KIND_SQL} AS kind`
+  const select = `SELECT actor_user_id AS "actorUserId", actor_role AS "actorRole", ${clinicDaySql(timeZone)} AS day, ${kindSql()} AS kind`
   const replacements = { patientId, self: patientUserId, limit: HISTORY_PAGE_SIZE, offset: (page - 1) * HISTORY_PAGE_SIZE }
   const [rows, totals] = await Promise.all([
     sequelize.query<Omit<HistoryGroup, 'actions'> & { actions: string }>(
-      `${select}, COUNT(*) AS count, MIN(at) AS firstAt, MAX(at) AS lastAt, GROUP_CONCAT(DISTINCT action) AS actions ${from}
+      `${select}, COUNT(*) AS count, MIN(at) AS "firstAt", MAX(at) AS "lastAt", ${sqlDistinctList('action')} AS actions ${from}
        ORDER BY day DESC, MAX(id) DESC LIMIT :limit OFFSET :offset`,
       { replacements, type: QueryTypes.SELECT },
     ),
-    sequelize.query<{ total: number }>(`SELECT COUNT(*) AS total FROM (${select} ${from})`, { replacements, type: QueryTypes.SELECT }),
+    sequelize.query<{ total: number }>(`SELECT COUNT(*) AS total FROM (${select} ${from}) AS g`, { replacements, type: QueryTypes.SELECT }),
   ])
   return {
     total: Number(totals[0]?.total ?? 0),

@@ -14,7 +14,7 @@ export function processResetRequests(): Promise<number> {
     const sequelize = await useDb()
     let done = 0
     for (;;) {
-      const [rows] = await sequelize.query('SELECT id, email, may_send AS maySend, requested_at AS requestedAt FROM reset_requests ORDER BY id LIMIT 20') as [{ id: number, email: string, maySend: number | boolean, requestedAt: string }[], unknown]
+      const [rows] = await sequelize.query('SELECT id, email, may_send AS "maySend", requested_at AS "requestedAt" FROM reset_requests ORDER BY id LIMIT 20') as [{ id: number, email: string, maySend: number | boolean, requestedAt: string | Date }[], unknown]
       if (!rows.length) return done
       for (const row of rows) {
         await sequelize.transaction(async (transaction) => {

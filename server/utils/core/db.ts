@@ -1,13 +1,18 @@
+// The app tsconfig reaches this file through the tests but does not include server/types.
+// eslint-disable-next-line @typescript-eslint/triple-slash-reference
+/// <reference path="../../types/pg.d.ts" />
 import { AsyncLocalStorage } from 'node:async_hooks'
 import { mkdirSync } from 'node:fs'
 import { dirname, resolve } from 'node:path'
-import { Sequelize, Transaction } from 'sequelize'
+import pg from 'pg'
+import type { Client as PgClient } from 'pg'
+import { QueryTypes, Sequelize, Transaction } from 'sequelize'
 import sqlite3 from 'sqlite3'
 import { SequelizeStorage, Umzug } from 'umzug'
 import { migrations } from '../../db/migrations'
 import { initModels } from '../../db/models'
 import type { WriteQueue } from './write-queue'
-import { createWriteQueue } from './write-queue'
+import { createWriteQueue, writeQueueBusy } from './write-queue'
 import { seedDemoActivity } from '../../db/seed/activity'
 import { seedDemoClinic } from '../../db/seed/demo'
 
@@ -198,8 +203,69 @@ function queueWrites(sequelize: Sequelize, queue: WriteQueue) {
   }) as Sequelize['query']
 }
 
-async function connect(): Promise<Sequelize> {
-  const config = useRuntimeConfig()
+/*
+ * Two databases, one code base. SQLite (a file, NUXT_DATABASE_PATH) is the embedded default;
+ * NUXT_DATABASE_URL=postgres://… puts the same models and migrations on PostgreSQL, for
+ * several app instances on one database. What differs between them is decided here and in
+ * the few helpers below (dialect-sql.ts), never in routes:
+ *
+ * - SQLite has one writer: every write of the process waits in the write line (above).
+ *   PostgreSQL serialises writers itself: each managed transaction takes one transaction-level
+ *   advisory lock first (WRITER_LOCK), so the check-then-write code written for SQLite's one
+ *   writer (throttle counts, look-up-then-create by request id, conditional updates) stays
+ *   exact across instances, and a transaction is never half-seen by another. Reads never wait.
+ * - A statement made while a transaction's callback runs still joins that transaction on
+ *   both (the same AsyncLocalStorage turn), so code does not depend on the dialect.
+ * - The pool's wait for a connection plays the line's deadline: a request that cannot get
+ *   one within NUXT_WRITE_QUEUE_WAIT_MS answers 503 errors.busy, as a full line does.
+ */
+export type Dialect = 'sqlite' | 'postgres'
+
+/** Which database the settings choose: PostgreSQL when NUXT_DATABASE_URL names one. */
+export function databaseDialect(url = String(useRuntimeConfig().databaseUrl ?? '')): Dialect {
+  return /^postgres(ql)?:\/\//.test(url) ? 'postgres' : 'sqlite'
+}
+
+/** The key of the advisory lock every PostgreSQL write transaction holds (any constant bigint). */
+const WRITER_LOCK = 7_261_730
+
+// PostgreSQL's COUNT(*) and BIGINT come back as strings by default; every count here fits a number.
+pg.types.setTypeParser(pg.types.builtins.INT8 ?? 20, (value: string) => Number.parseInt(value, 10))
+
+function serialiseWriters(sequelize: Sequelize) {
+  const begin = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>
+  sequelize.transaction = ((...args: unknown[]) => {
+    const callback = args.find(arg => typeof arg === 'function') as ((t: Transaction) => Promise<unknown>) | undefined
+    if (!callback) return begin(...args)
+    const options = ((args.length > 1 ? args[0] : undefined) ?? {}) as { transaction?: Transaction | null }
+    const turn = turns.getStore()
+    if (turn?.holding && turn.transaction && !isFinished(turn.transaction)) {
+      return begin({ ...options, transaction: options.transaction ?? turn.transaction }, callback)
+    }
+    const mine: Turn = { transaction: null, holding: true }
+    return turns.run(mine, () => begin(options, async (transaction: Transaction) => {
+      mine.transaction = transaction
+      await query(`SELECT pg_advisory_xact_lock(${WRITER_LOCK})`, { transaction })
+      return callback(transaction)
+    })).catch((error: unknown) => {
+      if ((error as Error | null)?.name === 'SequelizeConnectionAcquireTimeoutError') throw writeQueueBusy(1)
+      throw error
+    }).finally(() => {
+      mine.holding = false
+    })
+  }) as Sequelize['transaction']
+
+  const query = sequelize.query.bind(sequelize) as (sql: unknown, options?: Record<string, unknown>) => Promise<unknown>
+  sequelize.query = ((sql: unknown, options?: Record<string, unknown>) => {
+    const turn = turns.getStore()
+    if (turn?.holding && turn.transaction && !isFinished(turn.transaction) && options?.transaction === undefined) {
+      return query(sql, { ...options, transaction: turn.transaction })
+    }
+    return query(sql, options)
+  }) as Sequelize['query']
+}
+
+function connectSqlite(config: ReturnType<typeof useRuntimeConfig>): Sequelize {
   const storage = resolve(config.databasePath)
   mkdirSync(dirname(storage), { recursive: true })
   const sequelize = new Sequelize({
@@ -214,13 +280,91 @@ async function connect(): Promise<Sequelize> {
   configureEachConnection(sequelize)
   writeQueue = createWriteQueue({ max: Number(config.writeQueueMax ?? 200), waitMs: Number(config.writeQueueWaitMs ?? 10_000) })
   queueWrites(sequelize, writeQueue)
-  await sequelize.query('PRAGMA journal_mode = WAL;')
+  return sequelize
+}
+
+function connectPostgres(config: ReturnType<typeof useRuntimeConfig>): Sequelize {
+  const sequelize = new Sequelize(String(config.databaseUrl), {
+    dialect: 'postgres',
+    dialectModule: pg,
+    logging: false,
+    pool: { max: Number(config.databasePoolMax ?? 10), min: 0, acquire: Number(config.writeQueueWaitMs ?? 10_000), idle: 10_000 },
+  })
+  serialiseWriters(sequelize)
+  return sequelize
+}
+
+async function connect(): Promise<Sequelize> {
+  const config = useRuntimeConfig()
+  const postgres = databaseDialect() === 'postgres'
+  const sequelize = postgres ? connectPostgres(config) : connectSqlite(config)
+  if (!postgres) await sequelize.query('PRAGMA journal_mode = WAL;')
   initModels(sequelize)
   schemaSettled = false
   tableInfo.clear()
-  await migrate(sequelize)
+  await migrateOnce(sequelize)
   schemaSettled = true
   return sequelize
+}
+
+/*
+ * SQL that reads differently on the two databases, for the few queries written by hand
+ * (the access history's groups). Everything else is plain SQL both accept.
+ */
+
+/** `column GLOB pattern` (SQLite's case-sensitive wildcard match: * ? [..]); a regular expression on PostgreSQL. */
+export function sqlGlob(column: string, pattern: string): string {
+  if (databaseDialect() === 'sqlite') return `${column} GLOB '${pattern.replace(/'/g, '\'\'')}'`
+  const regex = pattern.replace(/\[[^\]]*\]|[*?]|[^*?[]+/g, part =>
+    part === '*' ? '.*' : part === '?' ? '.' : part.startsWith('[') ? part : part.replace(/[.+^${}()|\\]/g, '\\$&'))
+  return `${column} ~ '^${regex.replace(/'/g, '\'\'')}$'`
+}
+
+/** The distinct values of `expression` in a group, joined with commas. */
+export function sqlDistinctList(expression: string): string {
+  return databaseDialect() === 'sqlite' ? `GROUP_CONCAT(DISTINCT ${expression})` : `STRING_AGG(DISTINCT ${expression}, ',')`
+}
+
+/**
+ * The calendar day (YYYY-MM-DD) of the instant in `column` in a time zone. PostgreSQL knows
+ * the zone; SQLite does not, so the caller's `sqliteDay` (the zone's offsets written out)
+ * is used there.
+ */
+export function sqlDayIn(timeZone: string, column: string, sqliteDay: () => string): string {
+  if (databaseDialect() === 'sqlite') return sqliteDay()
+  return `TO_CHAR(${column} AT TIME ZONE '${timeZone.replace(/'/g, '')}', 'YYYY-MM-DD')`
+}
+
+/**
+ * A real write for the readiness check, in the caller's transaction. SQLite: read the
+ * database header's user_version and write the same value back (a read-only file or folder,
+ * a lost lock or a failing disk makes it fail). PostgreSQL: take a transaction id, which a
+ * read-only server (a standby, a full disk in read-only mode) refuses. No data changes.
+ */
+export async function probeWrite(sequelize: Sequelize, transaction: Transaction) {
+  if (sequelize.getDialect() === 'postgres') {
+    await sequelize.query('SELECT txid_current()', { transaction })
+    return
+  }
+  const [row] = await sequelize.query<{ user_version: number }>('PRAGMA user_version', { type: QueryTypes.SELECT, transaction })
+  await sequelize.query(`PRAGMA user_version = ${Math.trunc(Number(row?.user_version ?? 0))}`, { transaction })
+}
+
+/** Key of the advisory lock held while migrations run, so two instances starting at once take turns. */
+const MIGRATION_LOCK = 7_261_731
+
+async function migrateOnce(sequelize: Sequelize) {
+  if (sequelize.getDialect() !== 'postgres') return migrate(sequelize)
+  // A session-level lock lives on one connection: hold one for the whole run.
+  const connection = await (sequelize.connectionManager as unknown as { getConnection: () => Promise<PgClient>, releaseConnection: (c: PgClient) => Promise<void> }).getConnection()
+  try {
+    await connection.query(`SELECT pg_advisory_lock(${MIGRATION_LOCK})`)
+    return await migrate(sequelize)
+  }
+  finally {
+    await connection.query(`SELECT pg_advisory_unlock(${MIGRATION_LOCK})`).catch(() => undefined)
+    await (sequelize.connectionManager as unknown as { releaseConnection: (c: PgClient) => Promise<void> }).releaseConnection(connection)
+  }
 }
 
 /** The one shared connection, created and migrated on first use. */
