@@ -54,6 +54,10 @@ export default defineNuxtConfig({
     s3ForcePathStyle: false,
     objectStorePort: 0,
     outboxPollMs: 2000,
+    // Scheduled tasks across instances (server/utils/core/task-runs.ts): how long a run's
+    // claim lasts without renewal, and how often each instance looks for interrupted runs.
+    taskLeaseMs: 120_000,
+    taskResumeMs: 60_000,
     outboxRetryBaseMs: 30_000,
     // /api/ready answers 503 below this much free disk or with an e-mail unsent this long.
     readyMinFreeMb: 200,

@@ -4,7 +4,7 @@ import type { RunningApp } from '../support/app'
 import { startApp } from '../support/app'
 import { patientIds } from '../support/circle'
 import { Client } from '../support/client'
-import { sql } from '../support/sqlite'
+import { refuseInserts, sql } from '../support/sqlite'
 
 /*
  * Issue 11, "Audit what happened": the audit line says what the request did (done, refused
@@ -74,7 +74,7 @@ describe('no patient data without its line', () => {
   it('a read whose audit line cannot be written answers 503 without the data; a refused change is still refused', async () => {
     const desmond = ids['LPU-1009']!
     const nurse = await Client.signIn(app.url, 'nurse2@demo.tidewell.test')
-    await sql(app, `CREATE TRIGGER refuse_audit BEFORE INSERT ON audit_events BEGIN SELECT RAISE(ABORT, 'refused by test'); END`)
+    const allowInserts = await refuseInserts(app, 'audit_events')
     try {
       const read = await nurse.get(`/api/patients/${desmond}`)
       expect(read.status).toBe(503)
@@ -82,7 +82,7 @@ describe('no patient data without its line', () => {
       expect(read.headers.get('retry-after')).toBe('1')
     }
     finally {
-      await sql(app, 'DROP TRIGGER refuse_audit')
+      await allowInserts()
     }
     expect((await nurse.get(`/api/patients/${desmond}`)).status).toBe(200)
   })

@@ -62,7 +62,7 @@ describe('the demo clinic', () => {
       FROM monitoring_plans m JOIN patients p ON p.id = m.patient_id JOIN users u ON u.id = m.owner_user_id`)
     expect(plans).toHaveLength(12)
     for (const plan of plans) expect(plan).toMatchObject({ owner: 'clinician@demo.tidewell.test', items: 10 })
-    const ecg = await sql<{ clinic_number: string }>(app, `SELECT p.clinic_number FROM monitoring_items i JOIN patients p ON p.id = i.patient_id WHERE i.kind = 'ecg' AND i.active = 1`)
+    const ecg = await sql<{ clinic_number: string }>(app, `SELECT p.clinic_number FROM monitoring_items i JOIN patients p ON p.id = i.patient_id WHERE i.kind = 'ecg' AND i.active = true`)
     expect(ecg.map(row => row.clinic_number)).toEqual(['LPU-1010'])
     const nurse = await Client.signIn(app.url, 'nurse@demo.tidewell.test')
     const due = (await nurse.get('/api/monitoring/due')).body.rows as { state: string }[]

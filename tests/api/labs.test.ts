@@ -3,7 +3,7 @@ import type { RunningApp } from '../support/app'
 import { startApp } from '../support/app'
 import { Client } from '../support/client'
 import { MailCatcher } from '../support/mail-catcher'
-import { sql } from '../support/sqlite'
+import { refuseInserts, sql } from '../support/sqlite'
 
 let app: RunningApp
 let mail: MailCatcher
@@ -93,7 +93,7 @@ describe('entering a result', () => {
   it('when the queue item cannot be written, the result is not stored either', async () => {
     const results = await count('lab_results')
     const items = await count('triage_items')
-    await sql(app, `CREATE TRIGGER refuse_items BEFORE INSERT ON triage_items BEGIN SELECT RAISE(ABORT, 'refused by test'); END`)
+    const allowInserts = await refuseInserts(app, 'triage_items')
     try {
       const failed = await nurse.post(`/api/patients/${ids['LPU-1002']}/labs`, { kind: 'qtc', takenOn: today, value: 520, heartRate: 60 })
       expect(failed.status).toBe(500)
@@ -101,7 +101,7 @@ describe('entering a result', () => {
       expect(await count('triage_items')).toBe(items)
     }
     finally {
-      await sql(app, 'DROP TRIGGER refuse_items')
+      await allowInserts()
     }
   })
 

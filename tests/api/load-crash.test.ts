@@ -5,6 +5,7 @@ import { startApp } from '../support/app'
 import type { LoadPatient } from '../support/load'
 import { diaryWithNote, signInLoadPatients, startAppWithPatients } from '../support/load'
 import { sql } from '../support/sqlite'
+import { onPostgres } from '../support/postgres'
 
 /*
  * A power cut in the middle of 50 writes (kill -9 of the server): after a restart on the
@@ -53,8 +54,8 @@ describe('kill -9 during 50-way writes', () => {
     expect(outcomes.every(o => o.status === 201 || o.status === 0), JSON.stringify(outcomes.map(o => o.status))).toBe(true)
 
     restarted = await startApp({ dataDir: app.dataDir })
-    const [check] = await sql<{ integrity_check: string }>(restarted, 'PRAGMA integrity_check')
-    expect(check!.integrity_check).toBe('ok')
+    // The file is sound (SQLite; on PostgreSQL the database server was never cut).
+    if (!onPostgres) expect(await sql(restarted, 'PRAGMA integrity_check')).toEqual([{ integrity_check: 'ok' }])
 
     const ids = patients.map(p => p.patientId)
     const stored = await sql<{ id: number, patientId: number, items: number, events: number }>(restarted,

@@ -6,6 +6,7 @@ import { startApp } from '../support/app'
 import { Client } from '../support/client'
 import { freePort } from '../support/ports'
 import { sql } from '../support/sqlite'
+import { onPostgres } from '../support/postgres'
 
 /*
  * Issue 10: /api/ready tells the truth. /api/health answered {"ok":true} with a read-only
@@ -59,7 +60,8 @@ describe('GET /api/ready', () => {
     expect(reply.headers.get('cache-control')).toBe('no-store')
   })
 
-  it('answers 503 naming the database when the database file is read-only, and 200 again once it is writable', async () => {
+  // On PostgreSQL the database is not a file of the app's; the probe's write (txid_current) is the same code path.
+  it.skipIf(onPostgres)('answers 503 naming the database when the database file is read-only, and 200 again once it is writable', async () => {
     // The server keeps its writer connection open, and a file mode only counts when a file
     // is opened: stop the server, take the write bits off the file, start it again.
     const { dataDir, dbPath } = plain

@@ -4,7 +4,7 @@ import { startApp } from '../support/app'
 import { Client } from '../support/client'
 import { diaryEntry } from '../support/diary'
 import { MailCatcher } from '../support/mail-catcher'
-import { sql } from '../support/sqlite'
+import { refuseInserts, sql } from '../support/sqlite'
 
 let app: RunningApp
 let mail: MailCatcher
@@ -41,7 +41,7 @@ describe('queue items are created with the entry', () => {
 
     const entriesBefore = await count('diary_entries')
     const itemsBefore = await count('triage_items')
-    await sql(app, `CREATE TRIGGER refuse_items BEFORE INSERT ON triage_items BEGIN SELECT RAISE(ABORT, 'refused by test'); END`)
+    const allowInserts = await refuseInserts(app, 'triage_items')
     try {
       const failed = await patient.post(`/api/patients/${id}/diary`, urgentEntry())
       expect(failed.status).toBe(500)
@@ -49,7 +49,7 @@ describe('queue items are created with the entry', () => {
       expect(await count('triage_items')).toBe(itemsBefore)
     }
     finally {
-      await sql(app, 'DROP TRIGGER refuse_items')
+      await allowInserts()
     }
   })
 

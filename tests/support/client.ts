@@ -108,6 +108,13 @@ export class Client {
     return { status: response.status, headers: response.headers, body: parsed }
   }
 
+  /** The same session (its cookies, copied) sent to another server, e.g. a second instance. */
+  on(baseUrl: string): Client {
+    const other = new Client(baseUrl)
+    for (const [name, value] of this.cookies) other.cookies.set(name, value)
+    return other
+  }
+
   /** The session cookie as a `cookie` header value, for a test that sends a request by hand. */
   cookieHeader(): string {
     return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')

@@ -12,25 +12,30 @@ export interface LoadPatient {
   client: Client
 }
 
-/**
- * A server whose database holds `count` more patients than the demo clinic (load-1 ...
- * load-N, password DEMO_PASSWORD). The demo clinic has only a few, so the first server
- * migrates and seeds the file, stops, the patients are added straight into SQLite (the
- * password hash of a demo patient copied), and the server starts again on the same file.
- */
-export async function startAppWithPatients(count: number, env: Record<string, string> = {}): Promise<RunningApp> {
-  const first = await startApp({ env })
-  await first.stop({ keepData: true })
+/** Adds load-1 … load-N to a stopped (or running) server's database (the password hash of a demo patient copied). */
+export async function addLoadPatients(app: RunningApp, count: number) {
   const statements: string[] = []
   for (let n = 1; n <= count; n++) {
     statements.push(`INSERT INTO users (email, password_hash, role, name, language, active, created_at, updated_at)
-      SELECT 'load-${n}@demo.tidewell.test', password_hash, 'patient', 'Load Patient ${n}', 'en', 1, created_at, updated_at
+      SELECT 'load-${n}@demo.tidewell.test', password_hash, 'patient', 'Load Patient ${n}', 'en', true, created_at, updated_at
       FROM users WHERE email = 'howard@demo.tidewell.test'`)
     statements.push(`INSERT INTO patients (user_id, clinic_number, date_of_birth, created_at, updated_at)
       SELECT id, 'LOAD-${String(n).padStart(4, '0')}', '1950-06-01', created_at, updated_at
       FROM users WHERE email = 'load-${n}@demo.tidewell.test'`)
   }
-  await sql(first, `BEGIN; ${statements.join(';\n')}; COMMIT;`, [], { exec: true })
+  await sql(app, `BEGIN; ${statements.join(';\n')}; COMMIT;`, [], { exec: true })
+}
+
+/**
+ * A server whose database holds `count` more patients than the demo clinic (load-1 ...
+ * load-N, password DEMO_PASSWORD). The demo clinic has only a few, so the first server
+ * migrates and seeds the database, stops, the patients are added straight into it, and
+ * the server starts again on the same data.
+ */
+export async function startAppWithPatients(count: number, env: Record<string, string> = {}): Promise<RunningApp> {
+  const first = await startApp({ env })
+  await first.stop({ keepData: true })
+  await addLoadPatients(first, count)
   const app = await startApp({ env, dataDir: first.dataDir })
   return {
     ...app,

@@ -14,6 +14,11 @@ import { freePort } from './ports'
 /** The database the tests run on: TIDEWELL_DB=postgres, or SQLite (the default). */
 export const onPostgres = process.env.TIDEWELL_DB === 'postgres'
 
+/** Says in the test output why a part is skipped on PostgreSQL (call it beside describe.skipIf(onPostgres)). */
+export function skippedOnPostgres(what: string, reason: string) {
+  if (onPostgres) console.log(`[tests] ${what} skipped on PostgreSQL: ${reason}`)
+}
+
 /** Where the global setup's cluster listens (an admin URL without a database name). */
 export const CLUSTER_ENV = 'TIDEWELL_PG_CLUSTER_URL'
 

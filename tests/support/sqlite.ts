@@ -60,3 +60,23 @@ export async function sql<T = Record<string, unknown>>(database: Database, state
     await new Promise<void>(done => db.close(() => done()))
   }
 }
+
+/**
+ * Makes every INSERT into `table` fail (a trigger), to see a write that cannot complete roll
+ * back whole; returns the undo. The trigger's words differ between the two databases.
+ */
+export async function refuseInserts(database: Database, table: string): Promise<() => Promise<void>> {
+  const trigger = `refuse_${table}`
+  const postgres = typeof database !== 'string' && !!database.databaseUrl
+  if (postgres) {
+    await sql(database, `CREATE OR REPLACE FUNCTION refuse_by_test() RETURNS trigger LANGUAGE plpgsql AS $$ BEGIN RAISE EXCEPTION 'refused by test'; END $$;
+      CREATE TRIGGER ${trigger} BEFORE INSERT ON ${table} FOR EACH ROW EXECUTE FUNCTION refuse_by_test()`, [], { exec: true })
+    return async () => {
+      await sql(database, `DROP TRIGGER ${trigger} ON ${table}`)
+    }
+  }
+  await sql(database, `CREATE TRIGGER ${trigger} BEFORE INSERT ON ${table} BEGIN SELECT RAISE(ABORT, 'refused by test'); END`)
+  return async () => {
+    await sql(database, `DROP TRIGGER ${trigger}`)
+  }
+}

@@ -22,13 +22,12 @@ export default defineEventHandler(async (event) => {
   else Object.assign(where, { status: query.status })
   if (query.assignee === 'me') Object.assign(where, { assigneeUserId: user.id })
   if (query.assignee === 'nobody') Object.assign(where, { assigneeUserId: { [Op.is]: null } })
-  const patientWhere: WhereOptions = {}
   if (query.q) {
-    const like = `%${query.q.replace(/[\\%_]/g, c => `\\${c}`)}%`
-    Object.assign(patientWhere, { [Op.or]: [{ clinicNumber: { [Op.like]: like } }, { '$patient.user.name$': { [Op.like]: like } }] })
+    const contains = textContains(query.q)
+    Object.assign(where, { [Op.or]: [{ '$patient.clinic_number$': contains }, { '$patient.user.name$': contains }] })
   }
 
-  const include = [{ model: Patient, as: 'patient', where: patientWhere, include: [{ model: User, as: 'user', attributes: ['id', 'name'] }] }]
+  const include = [{ model: Patient, as: 'patient', required: true, include: [{ model: User, as: 'user', attributes: ['id', 'name'] }] }]
   // Counting needs the patient join only to search by name or clinic number.
   const countInclude = query.q ? include : []
   const [items, total, counts] = await Promise.all([

@@ -15,6 +15,7 @@ import * as visits from './0014-visits'
 import * as appointmentCancel from './0015-appointment-cancel'
 import * as monitoring from './0016-monitoring'
 import * as messages from './0017-messages'
+import * as taskRuns from './0018-task-runs'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -38,4 +39,5 @@ export const migrations = [
   { name: '0015-appointment-cancel', ...appointmentCancel },
   { name: '0016-monitoring', ...monitoring },
   { name: '0017-messages', ...messages },
+  { name: '0018-task-runs', ...taskRuns },
 ]

@@ -20,6 +20,7 @@ import { Patient } from './patient'
 import { PatientRegimen } from './patient-regimen'
 import { Regimen } from './regimen'
 import { SignInFailure } from './sign-in-failure'
+import { TaskRun } from './task-run'
 import { TotpRecoveryCode } from './totp-recovery-code'
 import { TriageEvent } from './triage-event'
 import { TriageItem } from './triage-item'
@@ -27,11 +28,11 @@ import { User } from './user'
 import { UserSession } from './user-session'
 import { Visit, VisitKit } from './visit'
 
-export { Appointment, AppointmentChangeRequest, Attachment, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, Message, MessageRead, MessageThread, MonitoringItem, MonitoringPlan, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TotpRecoveryCode, TriageEvent, TriageItem, User, UserSession, Visit, VisitKit }
+export { Appointment, AppointmentChangeRequest, Attachment, AuditEvent, CareGrant, CaughtMail, CircleInvitation, ClinicSetting, DiaryEntry, Injection, LabResult, Message, MessageRead, MessageThread, MonitoringItem, MonitoringPlan, OneTimeToken, OutboxMessage, Patient, PatientRegimen, Regimen, SignInFailure, TaskRun, TotpRecoveryCode, TriageEvent, TriageItem, User, UserSession, Visit, VisitKit }
 
 /** Registers every model and its associations on one connection. */
 export function initModels(sequelize: Sequelize) {
-  for (const model of [User, Patient, CareGrant, AuditEvent, OutboxMessage, OneTimeToken, SignInFailure, CaughtMail, ClinicSetting, CircleInvitation, DiaryEntry, Regimen, PatientRegimen, Injection, Appointment, AppointmentChangeRequest, TriageItem, TriageEvent, TotpRecoveryCode, UserSession]) {
+  for (const model of [User, Patient, CareGrant, AuditEvent, OutboxMessage, OneTimeToken, SignInFailure, CaughtMail, ClinicSetting, CircleInvitation, DiaryEntry, Regimen, PatientRegimen, Injection, Appointment, AppointmentChangeRequest, TriageItem, TriageEvent, TotpRecoveryCode, UserSession, TaskRun]) {
     model.initModel(sequelize)
   }
   User.hasOne(Patient, { foreignKey: { name: 'userId', field: 'user_id', allowNull: false }, as: 'patient' })

@@ -1,3 +1,5 @@
+// Not claimed once across instances (runTaskOnce): each instance may run it at any time,
+// since every message is claimed by one sender (processOutbox in server/utils/mail/outbox.ts).
 export default defineTask({
   meta: { name: 'outbox:send', description: 'Send every queued e-mail that is due' },
   async run({ payload }) {

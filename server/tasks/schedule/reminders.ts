@@ -13,8 +13,8 @@ import { Appointment, Patient, User } from '../../db/models'
  */
 export default defineTask({
   meta: { name: 'schedule:reminders', description: 'Queue appointment reminders and "please book" e-mails' },
-  async run({ payload }) {
-    const clock = await scheduleClock(typeof payload.now === 'string' ? new Date(payload.now) : new Date())
+  run: ({ payload }) => runTaskOnce('schedule:reminders', payload, async (now) => {
+    const clock = await scheduleClock(now)
     const tz = clock.settings.timeZone
     const sequelize = await useDb()
     let reminders = 0
@@ -63,6 +63,6 @@ export default defineTask({
       if (queued) pleaseBook++
     }
     const monitoring = await queueMonitoringReminders(clock)
-    return { result: { today: clock.today, reminders, pleaseBook, monitoring } }
-  },
+    return { today: clock.today, reminders, pleaseBook, monitoring }
+  }),
 })

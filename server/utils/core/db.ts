@@ -6,7 +6,8 @@ import { mkdirSync } from 'node:fs'
 import { dirname, resolve } from 'node:path'
 import pg from 'pg'
 import type { Client as PgClient } from 'pg'
-import { QueryTypes, Sequelize, Transaction } from 'sequelize'
+import { Op, QueryTypes, Sequelize, Transaction } from 'sequelize'
+import type { TransactionOptions } from 'sequelize'
 import sqlite3 from 'sqlite3'
 import { SequelizeStorage, Umzug } from 'umzug'
 import { migrations } from '../../db/migrations'
@@ -232,12 +233,33 @@ const WRITER_LOCK = 7_261_730
 // PostgreSQL's COUNT(*) and BIGINT come back as strings by default; every count here fits a number.
 pg.types.setTypeParser(pg.types.builtins.INT8 ?? 20, (value: string) => Number.parseInt(value, 10))
 
+const ROW_LOCKED = Symbol('row-locked')
+
+/**
+ * A transaction that claims rows one by one (claimLocks) instead of taking the writer lock:
+ * on PostgreSQL several instances run it at once, each getting rows the others have not
+ * locked (FOR UPDATE SKIP LOCKED), as the outbox does; on SQLite it is an ordinary
+ * transaction in the write line. Keep it to reads and updates of the claimed rows.
+ */
+export function rowLockTransaction<T>(sequelize: Sequelize, callback: (transaction: Transaction) => Promise<T>): Promise<T> {
+  return sequelize.transaction({ [ROW_LOCKED]: true } as TransactionOptions, callback)
+}
+
+/**
+ * Find options that lock the rows found for the rest of the transaction and pass over rows
+ * another transaction holds (SELECT … FOR UPDATE SKIP LOCKED on PostgreSQL; nothing on
+ * SQLite, whose one writer holds them all).
+ */
+export function claimLocks(transaction: Transaction) {
+  return { transaction, lock: Transaction.LOCK.UPDATE, skipLocked: true }
+}
+
 function serialiseWriters(sequelize: Sequelize) {
   const begin = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>
   sequelize.transaction = ((...args: unknown[]) => {
     const callback = args.find(arg => typeof arg === 'function') as ((t: Transaction) => Promise<unknown>) | undefined
     if (!callback) return begin(...args)
-    const options = ((args.length > 1 ? args[0] : undefined) ?? {}) as { transaction?: Transaction | null }
+    const { [ROW_LOCKED]: rowLocked, ...options } = ((args.length > 1 ? args[0] : undefined) ?? {}) as { transaction?: Transaction | null, [ROW_LOCKED]?: boolean }
     const turn = turns.getStore()
     if (turn?.holding && turn.transaction && !isFinished(turn.transaction)) {
       return begin({ ...options, transaction: options.transaction ?? turn.transaction }, callback)
@@ -245,7 +267,7 @@ function serialiseWriters(sequelize: Sequelize) {
     const mine: Turn = { transaction: null, holding: true }
     return turns.run(mine, () => begin(options, async (transaction: Transaction) => {
       mine.transaction = transaction
-      await query(`SELECT pg_advisory_xact_lock(${WRITER_LOCK})`, { transaction })
+      if (!rowLocked) await query(`SELECT pg_advisory_xact_lock(${WRITER_LOCK})`, { transaction })
       return callback(transaction)
     })).catch((error: unknown) => {
       if ((error as Error | null)?.name === 'SequelizeConnectionAcquireTimeoutError') throw writeQueueBusy(1)
@@ -311,6 +333,16 @@ async function connect(): Promise<Sequelize> {
  * SQL that reads differently on the two databases, for the few queries written by hand
  * (the access history's groups). Everything else is plain SQL both accept.
  */
+
+/**
+ * A where condition for a column holding `text`, ignoring case (the queue's search by name or
+ * clinic number): LIKE on SQLite, which ignores the case of ASCII letters; ILIKE on
+ * PostgreSQL, whose LIKE does not. The wildcards in `text` are matched as themselves.
+ */
+export function textContains(text: string) {
+  const like = `%${text.replace(/[\\%_]/g, c => `\\${c}`)}%`
+  return databaseDialect() === 'postgres' ? { [Op.iLike]: like } : { [Op.like]: like }
+}
 
 /** `column GLOB pattern` (SQLite's case-sensitive wildcard match: * ? [..]); a regular expression on PostgreSQL. */
 export function sqlGlob(column: string, pattern: string): string {

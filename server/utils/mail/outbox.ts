@@ -105,22 +105,47 @@ export function sendErrorText(error: unknown): string {
 let running: Promise<number> | undefined
 
 /**
+ * How long a claimed message is kept from the other instances while this one sends it. An
+ * instance that dies while sending leaves its claim, and whoever is alive sends the message
+ * once the claim has run out (the SMTP client gives up long before).
+ */
+export const CLAIM_MS = 10 * 60 * 1000
+
+/**
+ * Claims up to 50 due messages, alerts first, then oldest first: in one short transaction
+ * they are locked (passing over those another instance is claiming) and their next try is
+ * moved to the end of the claim, so no other instance finds them due. The claim's time is
+ * the token: the outcome is written only while the message still carries it.
+ */
+async function claimDue(now: Date): Promise<{ due: OutboxMessage[], claimedUntil: Date }> {
+  const sequelize = await useDb()
+  const claimedUntil = new Date(now.getTime() + CLAIM_MS)
+  const due = await rowLockTransaction(sequelize, async (transaction) => {
+    const dueNow = { status: 'pending', nextAttemptAt: { [Op.lte]: now } }
+    const order: [string, string][] = [['nextAttemptAt', 'ASC'], ['id', 'ASC']]
+    const alerts = await OutboxMessage.findAll({ where: { ...dueNow, ...alertWhere }, order, limit: 50, ...claimLocks(transaction) })
+    const others = alerts.length < 50
+      ? await OutboxMessage.findAll({ where: { ...dueNow, ...notAlertWhere }, order, limit: 50 - alerts.length, ...claimLocks(transaction) })
+      : []
+    const claimed = [...alerts, ...others]
+    if (claimed.length) await OutboxMessage.update({ nextAttemptAt: claimedUntil }, { where: { id: claimed.map(m => m.id) }, transaction })
+    return claimed
+  })
+  return { due, claimedUntil }
+}
+
+/**
  * Sends every due message, alerts first, then oldest first. A message is marked sent only
  * after the SMTP server accepted it; a failure schedules the next try with exponential
  * backoff (retryDelayMs), without limit, so nothing is dropped. One pass at a time per
- * process.
+ * process; several processes on one database each send the messages they claimed
+ * (claimDue), so each message is sent once.
  */
 export function processOutbox(now = () => new Date()): Promise<number> {
   running ??= (async () => {
-    await useDb()
     const baseMs = Number(useRuntimeConfig().outboxRetryBaseMs)
-    const dueNow = { status: 'pending', nextAttemptAt: { [Op.lte]: now() } }
-    const order: [string, string][] = [['nextAttemptAt', 'ASC'], ['id', 'ASC']]
-    const alerts = await OutboxMessage.findAll({ where: { ...dueNow, ...alertWhere }, order, limit: 50 })
-    const others = alerts.length < 50
-      ? await OutboxMessage.findAll({ where: { ...dueNow, ...notAlertWhere }, order, limit: 50 - alerts.length })
-      : []
-    const due = [...alerts, ...others]
+    const { due, claimedUntil } = await claimDue(now())
+    const stillMine = (message: OutboxMessage) => ({ where: { id: message.id, status: 'pending', nextAttemptAt: claimedUntil } })
     let sent = 0
     for (const message of due) {
       try {
@@ -134,17 +159,17 @@ export function processOutbox(now = () => new Date()): Promise<number> {
           attachments: message.attachments.map(a => ({ filename: a.filename, contentType: a.contentType, content: a.content })),
         })
         lastSentAt = now()
-        await message.update({ status: 'sent', sentAt: lastSentAt, attempts: message.attempts + 1, lastError: null })
+        await OutboxMessage.update({ status: 'sent', sentAt: lastSentAt, attempts: message.attempts + 1, lastError: null }, stillMine(message))
         sent++
       }
       catch (error) {
         const attempts = message.attempts + 1
         lastFailure = { at: now(), error: sendErrorText(error) }
-        await message.update({
+        await OutboxMessage.update({
           attempts,
           lastError: lastFailure.error,
           nextAttemptAt: new Date(now().getTime() + retryDelayMs(attempts, baseMs, isAlertMessage(message))),
-        })
+        }, stillMine(message))
       }
     }
     return sent

@@ -1,6 +1,7 @@
 import { z } from 'zod'
 
-const bodySchema = z.object({ now: z.string().datetime().optional() }).strict()
+// slot: run as that tick of the schedule, once across instances (server/utils/core/task-runs.ts).
+const bodySchema = z.object({ now: z.string().datetime().optional(), slot: z.string().min(1).max(100).optional() }).strict()
 const TASKS = ['outbox:send', 'triage:escalate', 'triage:overdue', 'diary:remind', 'schedule:reminders', 'attachments:prune'] as const
 
 /**
@@ -13,6 +14,6 @@ export default defineEventHandler(async (event) => {
   const body = await readValidatedBody(event, parseWith(bodySchema))
   if (!(TASKS as readonly string[]).includes(name)) throw createError({ statusCode: 404, message: 'errors.notFound' })
   if (body.now && !useRuntimeConfig().allowClockOverride) throw createError({ statusCode: 403, message: 'errors.forbidden' })
-  const { result } = await runTask(name, { payload: { now: body.now } })
+  const { result } = await runTask(name, { payload: { now: body.now, slot: body.slot } })
   return { task: name, result }
 })
