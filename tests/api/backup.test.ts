@@ -1,4 +1,3 @@
-import { spawn } from 'node:child_process'
 import { randomUUID } from 'node:crypto'
 import { mkdtempSync, readdirSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
@@ -8,6 +7,7 @@ import type { RunningApp } from '../support/app'
 import { startApp } from '../support/app'
 import { Client } from '../support/client'
 import { diaryEntry } from '../support/diary'
+import { runScript } from '../support/scripts'
 import { sql } from '../support/sqlite'
 import { onPostgres, skippedOnPostgres } from '../support/postgres'
 
@@ -18,26 +18,7 @@ import { onPostgres, skippedOnPostgres } from '../support/postgres'
  * stopped, and refuses while it runs.
  */
 
-const root = new URL('../../', import.meta.url).pathname
 const PATIENTS = ['patient', 'bernard', 'luis', 'odell', 'franklin', 'kenji', 'ramon', 'desmond']
-
-function runScript(script: string, args: string[], databasePath: string): Promise<{ code: number | null, out: string }> {
-  return new Promise((done) => {
-    const child = spawn(process.execPath, [`${root}scripts/${script}`, ...args], {
-      cwd: root,
-      env: { ...process.env, NUXT_DATABASE_PATH: databasePath },
-      stdio: ['ignore', 'pipe', 'pipe'],
-    })
-    let out = ''
-    child.stdout.on('data', (chunk) => {
-      out += chunk
-    })
-    child.stderr.on('data', (chunk) => {
-      out += chunk
-    })
-    child.on('exit', code => done({ code, out }))
-  })
-}
 
 const entryIds = async (dbPath: string) => new Set((await sql<{ id: number }>(dbPath, 'SELECT id FROM diary_entries')).map(r => r.id))
 
@@ -51,7 +32,7 @@ const folder = () => {
 }
 
 beforeAll(async () => {
-  app = await startApp()
+  if (!onPostgres) app = await startApp()
 })
 afterAll(async () => {
   await app?.stop()
@@ -85,7 +66,7 @@ describe.skipIf(onPostgres)('npm run backup and npm run restore', () => {
 
     const before = new Set(acknowledged) // acknowledged (201) before the backup started
     const backups = folder()
-    const backup = await runScript('backup.mjs', [backups], app.dbPath)
+    const backup = await runScript('backup.mjs', [backups], { NUXT_DATABASE_PATH: app.dbPath })
     const duringOrAfter = acknowledged.length - before.size
     await new Promise(r => setTimeout(r, 300))
     writing = false
@@ -101,7 +82,7 @@ describe.skipIf(onPostgres)('npm run backup and npm run restore', () => {
     // Restore into a new, empty data folder, then start a server on it.
     const fresh = folder()
     const freshDb = join(fresh, 'tidewell.sqlite')
-    const restore = await runScript('restore.mjs', [join(backups, files[0]!)], freshDb)
+    const restore = await runScript('restore.mjs', [join(backups, files[0]!)], { NUXT_DATABASE_PATH: freshDb })
     expect(restore.code, restore.out).toBe(0)
     restored = await startApp({ dataDir: fresh })
 
@@ -120,7 +101,7 @@ describe.skipIf(onPostgres)('npm run backup and npm run restore', () => {
 
   it('restore refuses while the server runs, and after it stops puts the backup back and keeps the replaced database aside', async () => {
     const backups = folder()
-    const backup = await runScript('backup.mjs', [backups], app.dbPath)
+    const backup = await runScript('backup.mjs', [backups], { NUXT_DATABASE_PATH: app.dbPath })
     expect(backup.code, backup.out).toBe(0)
     const [file] = readdirSync(backups)
     const inBackup = await entryIds(join(backups, file!))
@@ -133,14 +114,14 @@ describe.skipIf(onPostgres)('npm run backup and npm run restore', () => {
     const live = await entryIds(app.dbPath)
     expect(inBackup.has(later.body.id)).toBe(false)
 
-    const refused = await runScript('restore.mjs', [join(backups, file!)], app.dbPath)
+    const refused = await runScript('restore.mjs', [join(backups, file!)], { NUXT_DATABASE_PATH: app.dbPath })
     expect(refused.code).toBe(1)
     expect(refused.out).toMatch(/in use: stop the server first/)
     expect(await entryIds(app.dbPath)).toEqual(live)
     expect(readdirSync(app.dataDir).filter(name => name.includes('.replaced-'))).toEqual([])
 
     await app.stop({ keepData: true })
-    const done = await runScript('restore.mjs', [join(backups, file!)], app.dbPath)
+    const done = await runScript('restore.mjs', [join(backups, file!)], { NUXT_DATABASE_PATH: app.dbPath })
     expect(done.code, done.out).toBe(0)
     expect(await entryIds(app.dbPath)).toEqual(inBackup)
     const aside = readdirSync(app.dataDir).filter(name => /^tidewell\.sqlite\.replaced-\d{8}-\d{6}$/.test(name))

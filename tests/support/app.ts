@@ -27,9 +27,9 @@ export interface RunningApp {
  * in the tests' cluster, named in the folder (postgres-url) so that a restart on the same
  * folder finds the same data, as it finds the same SQLite file.
  */
-async function databaseOf(dataDir: string, given?: string): Promise<string | undefined> {
+async function databaseOf(dataDir: string, given?: string | null): Promise<string | undefined> {
   if (given) return given
-  if (!onPostgres) return undefined
+  if (!onPostgres || given === null) return undefined
   const file = join(dataDir, 'postgres-url')
   if (existsSync(file)) return readFileSync(file, 'utf8').trim()
   const url = await createDatabase()
@@ -41,9 +41,9 @@ async function databaseOf(dataDir: string, given?: string): Promise<string | und
  * Starts the built server (.output) with a fresh SQLite file (on PostgreSQL, a fresh
  * database), the demo clinic seeded and e-mail going to the given SMTP URL (or to the app's
  * own mail catcher when none is given). Several apps on one database: give them the same
- * `databaseUrl`.
+ * `databaseUrl`; `databaseUrl: null` keeps the app on its SQLite file on PostgreSQL too.
  */
-export async function startApp(options: { smtpUrl?: string, env?: Record<string, string>, dataDir?: string, databaseUrl?: string, user?: { uid: number, gid: number } } = {}): Promise<RunningApp> {
+export async function startApp(options: { smtpUrl?: string, env?: Record<string, string>, dataDir?: string, databaseUrl?: string | null, user?: { uid: number, gid: number } } = {}): Promise<RunningApp> {
   const port = await freePort()
   const dataDir = options.dataDir ?? mkdtempSync(join(tmpdir(), 'tidewell-test-'))
   const dbPath = join(dataDir, 'tidewell.sqlite')

@@ -86,8 +86,8 @@ export async function runTaskOnce<T>(name: string, payload: TaskRunPayload, work
 
 /**
  * Takes over runs whose holder stopped renewing its lease (it died mid-run) and runs each
- * again here. Taking one over is a conditional update on the old holder and lease, so of
- * two instances looking at once only one gets it. Returns how many were resumed.
+ * again here. Taking one over is a conditional update (still the old holder, lease still
+ * passed), so of two instances looking at once only one gets it. Returns how many were resumed.
  */
 export async function resumeInterruptedTasks(runNamed: (name: string, payload: TaskRunPayload) => Promise<unknown>): Promise<number> {
   await useDb()
@@ -96,7 +96,7 @@ export async function resumeInterruptedTasks(runNamed: (name: string, payload: T
   for (const run of stale) {
     const [taken] = await TaskRun.update(
       { holder: HOLDER, leaseUntil: new Date(Date.now() + leaseMs()), attempts: run.attempts + 1 },
-      { where: { id: run.id, status: 'running', holder: run.holder, leaseUntil: run.leaseUntil } },
+      { where: { id: run.id, status: 'running', holder: run.holder, leaseUntil: { [Op.lt]: new Date() } } },
     )
     if (!taken) continue
     resumed++
