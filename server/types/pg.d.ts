@@ -4,6 +4,7 @@ declare module 'pg' {
   interface QueryResult<R = Record<string, unknown>> {
     rows: R[]
     rowCount: number | null
+    fields: { name: string, dataTypeID: number }[]
   }
   export class Client {
     constructor(config?: string | { connectionString?: string })

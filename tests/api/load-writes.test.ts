@@ -5,6 +5,7 @@ import type { Reply } from '../support/client'
 import type { LoadPatient } from '../support/load'
 import { diaryWithNote, signInLoadPatients, startAppWithPatients } from '../support/load'
 import type { Database } from '../support/sqlite'
+import { onPostgres } from '../support/postgres'
 import { sql } from '../support/sqlite'
 
 /*
@@ -86,8 +87,10 @@ describe('a full write line', () => {
   let tinyPatients: LoadPatient[]
 
   beforeAll(async () => {
-    // One write may wait behind the running one; every other is refused at once.
-    tiny = await startAppWithPatients(30, { NUXT_WRITE_QUEUE_MAX: '1' })
+    // One write may wait behind the running one; every other is refused at once. On
+    // PostgreSQL (no line in the process) the pool is the line: two connections, and a
+    // request that cannot get one within 50 ms is refused the same way.
+    tiny = await startAppWithPatients(30, onPostgres ? { NUXT_DATABASE_POOL_MAX: '2', NUXT_WRITE_QUEUE_WAIT_MS: '50' } : { NUXT_WRITE_QUEUE_MAX: '1' })
     tinyPatients = await signInLoadPatients(tiny, 30, 1)
   }, 120_000)
 

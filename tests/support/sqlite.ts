@@ -12,10 +12,12 @@ export type Database = string | { dbPath: string, databaseUrl?: string }
 pg.types.setTypeParser(pg.types.builtins.INT8 ?? 20, (value: string) => Number.parseInt(value, 10))
 pg.types.setTypeParser(pg.types.builtins.DATE ?? 1082, (value: string) => value)
 const storedInstant = (at: Date) => `${at.toISOString().replace('T', ' ').replace('Z', '')} +00:00`
-const asSqlite = (value: unknown): unknown => {
+const JSON_TYPES = new Set([114, 3802])
+const asSqlite = (value: unknown, json: boolean): unknown => {
+  if (value === null) return value
+  if (json) return JSON.stringify(value)
   if (typeof value === 'boolean') return value ? 1 : 0
   if (value instanceof Date) return storedInstant(value)
-  if (value !== null && typeof value === 'object' && !Buffer.isBuffer(value)) return JSON.stringify(value)
   return value
 }
 
@@ -33,8 +35,9 @@ async function onPostgres<T>(url: string, statement: string, params: unknown[], 
       await client.query(statement)
       return []
     }
-    const { rows } = await client.query(numbered(statement), params)
-    return rows.map(row => Object.fromEntries(Object.entries(row).map(([key, value]) => [key, asSqlite(value)]))) as T[]
+    const { rows, fields } = await client.query(numbered(statement), params)
+    const json = new Set(fields.filter(field => JSON_TYPES.has(field.dataTypeID)).map(field => field.name))
+    return rows.map(row => Object.fromEntries(Object.entries(row).map(([key, value]) => [key, asSqlite(value, json.has(key))]))) as T[]
   }
   finally {
     await client.end()

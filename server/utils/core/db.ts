@@ -254,6 +254,12 @@ export function claimLocks(transaction: Transaction) {
   return { transaction, lock: Transaction.LOCK.UPDATE, skipLocked: true }
 }
 
+/** No connection free within NUXT_WRITE_QUEUE_WAIT_MS: 503 errors.busy with Retry-After, as a full write line answers. */
+function busyWhenNoConnection(error: unknown): never {
+  if ((error as Error | null)?.name === 'SequelizeConnectionAcquireTimeoutError') throw writeQueueBusy(1)
+  throw error
+}
+
 function serialiseWriters(sequelize: Sequelize) {
   const begin = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>
   sequelize.transaction = ((...args: unknown[]) => {
@@ -269,10 +275,7 @@ function serialiseWriters(sequelize: Sequelize) {
       mine.transaction = transaction
       if (!rowLocked) await query(`SELECT pg_advisory_xact_lock(${WRITER_LOCK})`, { transaction })
       return callback(transaction)
-    })).catch((error: unknown) => {
-      if ((error as Error | null)?.name === 'SequelizeConnectionAcquireTimeoutError') throw writeQueueBusy(1)
-      throw error
-    }).finally(() => {
+    })).catch(busyWhenNoConnection).finally(() => {
       mine.holding = false
     })
   }) as Sequelize['transaction']
@@ -283,7 +286,7 @@ function serialiseWriters(sequelize: Sequelize) {
     if (turn?.holding && turn.transaction && !isFinished(turn.transaction) && options?.transaction === undefined) {
       return query(sql, { ...options, transaction: turn.transaction })
     }
-    return query(sql, options)
+    return query(sql, options).catch(busyWhenNoConnection)
   }) as Sequelize['query']
 }
 
