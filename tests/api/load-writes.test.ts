@@ -88,8 +88,9 @@ describe('a full write line', () => {
 
   beforeAll(async () => {
     // One write may wait behind the running one; every other is refused at once. On
-    // PostgreSQL (no line in the process) the pool is the line: two connections, and a
-    // request that cannot get one within 50 ms is refused the same way.
+    // PostgreSQL (no line in the process) the transaction gate of server/utils/core/db.ts
+    // stands in: a pool of two leaves one transaction at a time, and one that cannot start
+    // within 50 ms is refused the same way, before it writes anything.
     tiny = await startAppWithPatients(30, onPostgres ? { NUXT_DATABASE_POOL_MAX: '2', NUXT_WRITE_QUEUE_WAIT_MS: '50' } : { NUXT_WRITE_QUEUE_MAX: '1' })
     tinyPatients = await signInLoadPatients(tiny, 30, 1)
   }, 120_000)

@@ -217,8 +217,9 @@ function queueWrites(sequelize: Sequelize, queue: WriteQueue) {
  *   exact across instances, and a transaction is never half-seen by another. Reads never wait.
  * - A statement made while a transaction's callback runs still joins that transaction on
  *   both (the same AsyncLocalStorage turn), so code does not depend on the dialect.
- * - The pool's wait for a connection plays the line's deadline: a request that cannot get
- *   one within NUXT_WRITE_QUEUE_WAIT_MS answers 503 errors.busy, as a full line does.
+ * - A gate plays the line's deadline (transactionGate): at most the pool's size less one
+ *   transactions of an instance hold connections; one that cannot start within
+ *   NUXT_WRITE_QUEUE_WAIT_MS answers 503 errors.busy before writing anything, as a full line does.
  */
 export type Dialect = 'sqlite' | 'postgres'
 
@@ -260,7 +261,43 @@ function busyWhenNoConnection(error: unknown): never {
   throw error
 }
 
-function serialiseWriters(sequelize: Sequelize) {
+/**
+ * PostgreSQL: how many transactions of this process may hold a connection at once (one
+ * connection of the pool is left to reads), and how long one may wait for that: past it,
+ * 503 errors.busy before anything of it is written, as from the SQLite line. The wait is
+ * never inside a transaction, so a write that started always finishes its request (a
+ * pool that ran dry after the commit would answer 503 for a stored write).
+ */
+function transactionGate(slots: number, waitMs: number) {
+  let busy = 0
+  const waiting: { start: () => void, timer: ReturnType<typeof setTimeout> }[] = []
+  const leave = () => {
+    const next = waiting.shift()
+    if (!next) return void busy--
+    clearTimeout(next.timer)
+    next.start()
+  }
+  return async <T>(job: () => Promise<T>): Promise<T> => {
+    if (busy < slots) busy++
+    else {
+      await new Promise<void>((start, refuse) => {
+        const waiter = { start, timer: setTimeout(() => {
+          waiting.splice(waiting.indexOf(waiter), 1)
+          refuse(writeQueueBusy(Math.max(1, Math.ceil(waitMs / 1000))))
+        }, waitMs) }
+        waiting.push(waiter)
+      })
+    }
+    try {
+      return await job()
+    }
+    finally {
+      leave()
+    }
+  }
+}
+
+function serialiseWriters(sequelize: Sequelize, gate: ReturnType<typeof transactionGate>) {
   const begin = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>
   sequelize.transaction = ((...args: unknown[]) => {
     const callback = args.find(arg => typeof arg === 'function') as ((t: Transaction) => Promise<unknown>) | undefined
@@ -271,11 +308,11 @@ function serialiseWriters(sequelize: Sequelize) {
       return begin({ ...options, transaction: options.transaction ?? turn.transaction }, callback)
     }
     const mine: Turn = { transaction: null, holding: true }
-    return turns.run(mine, () => begin(options, async (transaction: Transaction) => {
+    return gate(() => turns.run(mine, () => begin(options, async (transaction: Transaction) => {
       mine.transaction = transaction
       if (!rowLocked) await query(`SELECT pg_advisory_xact_lock(${WRITER_LOCK})`, { transaction })
       return callback(transaction)
-    })).catch(busyWhenNoConnection).finally(() => {
+    }))).catch(busyWhenNoConnection).finally(() => {
       mine.holding = false
     })
   }) as Sequelize['transaction']
@@ -309,13 +346,15 @@ function connectSqlite(config: ReturnType<typeof useRuntimeConfig>): Sequelize {
 }
 
 function connectPostgres(config: ReturnType<typeof useRuntimeConfig>): Sequelize {
+  const poolMax = Math.max(2, Number(config.databasePoolMax ?? 10))
   const sequelize = new Sequelize(String(config.databaseUrl), {
     dialect: 'postgres',
     dialectModule: pg,
     logging: false,
-    pool: { max: Number(config.databasePoolMax ?? 10), min: 0, acquire: Number(config.writeQueueWaitMs ?? 10_000), idle: 10_000 },
+    // A read waits for a connection as long as a request may take; the transactions' own wait is the gate's.
+    pool: { max: poolMax, min: 0, acquire: 60_000, idle: 10_000 },
   })
-  serialiseWriters(sequelize)
+  serialiseWriters(sequelize, transactionGate(Math.max(1, poolMax - 1), Number(config.writeQueueWaitMs ?? 10_000)))
   return sequelize
 }
 
