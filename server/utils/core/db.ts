@@ -163,18 +163,47 @@ export function useWriteQueue(): WriteQueue | undefined {
   return writeQueue
 }
 
-function queueWrites(sequelize: Sequelize, queue: WriteQueue) {
-  const begin = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>
+type Begin = (...args: unknown[]) => Promise<unknown>
+type Query = (sql: unknown, options?: Record<string, unknown>) => Promise<unknown>
+type Callback = (transaction: Transaction) => Promise<unknown>
+
+/** The transaction of the turn this code runs in, while it is still open. */
+function openTransaction(): Transaction | undefined {
+  const turn = turns.getStore()
+  return turn?.holding && turn.transaction && !isFinished(turn.transaction) ? turn.transaction : undefined
+}
+
+/**
+ * Puts one dialect's writer design around sequelize.transaction and sequelize.query. What
+ * both share: an unmanaged transaction (no callback; not used here, it would bypass the
+ * design) passes through, and inside a managed transaction's callback a transaction started
+ * becomes a savepoint on it and a statement without its own `transaction` runs in it. The
+ * design decides how a new transaction and a statement outside one run.
+ */
+function wrapWrites(sequelize: Sequelize, design: {
+  transaction: (options: Record<string | symbol, unknown>, callback: Callback, begin: Begin, query: Query) => Promise<unknown>
+  statement: (sql: unknown, options: Record<string, unknown> | undefined, query: Query) => Promise<unknown>
+}) {
+  const begin = sequelize.transaction.bind(sequelize) as Begin
+  const query = sequelize.query.bind(sequelize) as Query
   sequelize.transaction = ((...args: unknown[]) => {
-    const callback = args.find(arg => typeof arg === 'function') as ((t: Transaction) => Promise<unknown>) | undefined
-    // Unmanaged transactions (no callback) are not used here; they would bypass the line.
+    const callback = args.find(arg => typeof arg === 'function') as Callback | undefined
     if (!callback) return begin(...args)
-    const options = ((args.length > 1 ? args[0] : undefined) ?? {}) as { transaction?: Transaction | null }
-    const turn = turns.getStore()
-    if (turn?.holding && turn.transaction && !isFinished(turn.transaction)) {
-      return begin({ ...options, transaction: options.transaction ?? turn.transaction }, callback)
-    }
-    return queue.run(async () => {
+    const options = ((args.length > 1 ? args[0] : undefined) ?? {}) as Record<string | symbol, unknown> & { transaction?: Transaction | null }
+    const open = openTransaction()
+    if (open) return begin({ ...options, transaction: options.transaction ?? open }, callback)
+    return design.transaction(options, callback, begin, query)
+  }) as Sequelize['transaction']
+  sequelize.query = ((sql: unknown, options?: Record<string, unknown>) => {
+    const open = openTransaction()
+    if (open && options?.transaction === undefined) return query(sql, { ...options, transaction: open })
+    return design.statement(sql, options, query)
+  }) as Sequelize['query']
+}
+
+function queueWrites(sequelize: Sequelize, queue: WriteQueue) {
+  wrapWrites(sequelize, {
+    transaction: (options, callback, begin) => queue.run(async () => {
       const mine: Turn = { transaction: null, holding: true, writer: true }
       try {
         return await turns.run(mine, () => begin(options, (transaction: Transaction) => {
@@ -185,23 +214,17 @@ function queueWrites(sequelize: Sequelize, queue: WriteQueue) {
       finally {
         mine.holding = false
       }
-    })
-  }) as Sequelize['transaction']
-
-  const query = sequelize.query.bind(sequelize) as (sql: unknown, options?: Record<string, unknown>) => Promise<unknown>
-  sequelize.query = ((sql: unknown, options?: Record<string, unknown>) => {
-    const turn = turns.getStore()
-    if (turn?.holding && turn.transaction && !isFinished(turn.transaction) && options?.transaction === undefined) {
-      return query(sql, { ...options, transaction: turn.transaction })
-    }
-    if (options?.transaction || turn?.holding || !isWriteStatement(sql)) return query(sql, options)
-    return queue.run(() => {
-      const mine: Turn = { transaction: null, holding: true }
-      return turns.run(mine, () => query(sql, options)).finally(() => {
-        mine.holding = false
-      })
-    }, { ahead: true })
-  }) as Sequelize['query']
+    }),
+    statement: (sql, options, query) => {
+      if (options?.transaction || turns.getStore()?.holding || !isWriteStatement(sql)) return query(sql, options)
+      return queue.run(() => {
+        const mine: Turn = { transaction: null, holding: true }
+        return turns.run(mine, () => query(sql, options)).finally(() => {
+          mine.holding = false
+        })
+      }, { ahead: true })
+    },
+  })
 }
 
 /*
@@ -298,33 +321,19 @@ function transactionGate(slots: number, waitMs: number) {
 }
 
 function serialiseWriters(sequelize: Sequelize, gate: ReturnType<typeof transactionGate>) {
-  const begin = sequelize.transaction.bind(sequelize) as (...args: unknown[]) => Promise<unknown>
-  sequelize.transaction = ((...args: unknown[]) => {
-    const callback = args.find(arg => typeof arg === 'function') as ((t: Transaction) => Promise<unknown>) | undefined
-    if (!callback) return begin(...args)
-    const { [ROW_LOCKED]: rowLocked, ...options } = ((args.length > 1 ? args[0] : undefined) ?? {}) as { transaction?: Transaction | null, [ROW_LOCKED]?: boolean }
-    const turn = turns.getStore()
-    if (turn?.holding && turn.transaction && !isFinished(turn.transaction)) {
-      return begin({ ...options, transaction: options.transaction ?? turn.transaction }, callback)
-    }
-    const mine: Turn = { transaction: null, holding: true }
-    return gate(() => turns.run(mine, () => begin(options, async (transaction: Transaction) => {
-      mine.transaction = transaction
-      if (!rowLocked) await query(`SELECT pg_advisory_xact_lock(${WRITER_LOCK})`, { transaction })
-      return callback(transaction)
-    }))).catch(busyWhenNoConnection).finally(() => {
-      mine.holding = false
-    })
-  }) as Sequelize['transaction']
-
-  const query = sequelize.query.bind(sequelize) as (sql: unknown, options?: Record<string, unknown>) => Promise<unknown>
-  sequelize.query = ((sql: unknown, options?: Record<string, unknown>) => {
-    const turn = turns.getStore()
-    if (turn?.holding && turn.transaction && !isFinished(turn.transaction) && options?.transaction === undefined) {
-      return query(sql, { ...options, transaction: turn.transaction })
-    }
-    return query(sql, options).catch(busyWhenNoConnection)
-  }) as Sequelize['query']
+  wrapWrites(sequelize, {
+    transaction: ({ [ROW_LOCKED]: rowLocked, ...options }, callback, begin, query) => {
+      const mine: Turn = { transaction: null, holding: true }
+      return gate(() => turns.run(mine, () => begin(options, async (transaction: Transaction) => {
+        mine.transaction = transaction
+        if (!rowLocked) await query(`SELECT pg_advisory_xact_lock(${WRITER_LOCK})`, { transaction })
+        return callback(transaction)
+      }))).catch(busyWhenNoConnection).finally(() => {
+        mine.holding = false
+      })
+    },
+    statement: (sql, options, query) => query(sql, options).catch(busyWhenNoConnection),
+  })
 }
 
 function connectSqlite(config: ReturnType<typeof useRuntimeConfig>): Sequelize {
