@@ -127,3 +127,16 @@ describe('GET /api/audit/export', () => {
     expect(rows.map(r => r.actor_name)).toEqual(['\'=SUM(1+2) Helper'])
   })
 })
+
+describe('a long address', () => {
+  it('is kept whole in the audit line and the read still answers (PostgreSQL enforces column lengths, SQLite does not)', async () => {
+    const nurse = await Client.signIn(app.url, 'nurse@demo.tidewell.test')
+    // A query string the route ignores, long enough to pass 255 characters.
+    const padding = 'x'.repeat(400)
+    const path = `/api/patients/${howard}/schedule?note=${padding}`
+    const reply = await nurse.get(path)
+    expect(reply.status).toBe(200)
+    const lines = (await admin.get(`/api/audit?${query({ patient: howard })}`)).body.events as { resource: string }[]
+    expect(lines.map(line => line.resource)).toContain(`GET ${path}`)
+  })
+})

@@ -16,6 +16,7 @@ import * as appointmentCancel from './0015-appointment-cancel'
 import * as monitoring from './0016-monitoring'
 import * as messages from './0017-messages'
 import * as taskRuns from './0018-task-runs'
+import * as longText from './0019-long-text'
 
 /**
  * Every migration, in order. Nitro bundles the server, so migrations are listed here
@@ -40,4 +41,5 @@ export const migrations = [
   { name: '0016-monitoring', ...monitoring },
   { name: '0017-messages', ...messages },
   { name: '0018-task-runs', ...taskRuns },
+  { name: '0019-long-text', ...longText },
 ]
